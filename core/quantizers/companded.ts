@@ -1,0 +1,88 @@
+// Companded N-bit quantizer: continuous compressor, N-bit mid-rise uniform quantizer
+// in the compressed domain [-1, 1], expander. The compressor only guesses the level;
+// a comparison against the expanded decision values settles it, so encode() agrees
+// with table() to the last bit and ties go to the level farther from zero.
+import type { CompandingLaw } from '../laws/index';
+import { DEFAULT_LOAD_CAPACITY_DBM0, DEFAULT_SEGMENTS } from '../spec/types';
+import { checkBits, checkLoadCapacity, checkOverloadPoint, LevelQuantizer } from './level-quantizer';
+import { checkSegmentCount } from './segments';
+
+export interface CompandedOptions {
+  bits: number;
+  overloadPoint?: number;
+  loadCapacityDbm0?: number;
+  segments?: number;
+}
+
+export class CompandedQuantizer extends LevelQuantizer {
+  readonly law: CompandingLaw;
+  private readonly half: number;
+  /** Decision magnitudes: mags[m] is the lower edge of magnitude level m (mags[0] = 0). */
+  private readonly mags: Float64Array;
+  private readonly scale: number;
+
+  constructor(law: CompandingLaw, opts: CompandedOptions, label: string) {
+    const bits = opts.bits;
+    checkBits(bits, 2, 16, `${law.name}-law`);
+    const v = opts.overloadPoint ?? 1;
+    checkOverloadPoint(v);
+    const lc = opts.loadCapacityDbm0 ?? DEFAULT_LOAD_CAPACITY_DBM0;
+    checkLoadCapacity(lc);
+    const half = 1 << (bits - 1);
+    const segs = Math.min(opts.segments ?? DEFAULT_SEGMENTS, half);
+    checkSegmentCount(segs);
+
+    const mags = new Float64Array(half + 1);
+    const outMags = new Float64Array(half);
+    for (let m = 0; m <= half; m++) mags[m] = m === 0 ? 0 : v * law.expand(m / half);
+    for (let m = 0; m < half; m++) outMags[m] = v * law.expand((m + 0.5) / half);
+
+    const levels = 2 * half;
+    const outputs = new Float64Array(levels);
+    const decisions = new Float64Array(levels - 1);
+    const segmentByCode = new Uint8Array(levels);
+    const segOfMag = (m: number): number => Math.floor((m * segs) / half);
+    for (let m = 0; m < half; m++) {
+      outputs[half + m] = outMags[m];
+      outputs[half - 1 - m] = -outMags[m];
+      segmentByCode[half + m] = segOfMag(m);
+      segmentByCode[half - 1 - m] = segOfMag(m);
+    }
+    for (let c = 1; c < levels; c++) {
+      const m = c - half; // decision between code c-1 and c
+      decisions[c - 1] = m >= 0 ? mags[m] : -mags[-m];
+    }
+    const edges = new Float64Array(segs + 1);
+    for (let s = 1; s < segs; s++) edges[s] = mags[Math.ceil((s * half) / segs)];
+    edges[segs] = v;
+
+    super({
+      kind: law.name,
+      label,
+      bits,
+      overloadPoint: v,
+      loadCapacityDbm0: lc,
+      segmentEdges: edges,
+      outputs,
+      decisions,
+      segmentByCode,
+    });
+    this.law = law;
+    this.half = half;
+    this.mags = mags;
+    this.scale = 1 / v;
+  }
+
+  encode(x: number): number {
+    const a = Math.abs(x);
+    if (!(a === a)) return this.half; // NaN
+    const half = this.half;
+    const mags = this.mags;
+    let m = Math.floor(this.law.compress(a * this.scale) * half);
+    if (m >= half) m = half - 1;
+    else if (m < 0) m = 0;
+    while (m < half - 1 && a >= mags[m + 1]) m++;
+    while (m > 0 && a < mags[m]) m--;
+    return x < 0 ? half - 1 - m : half + m;
+  }
+}
