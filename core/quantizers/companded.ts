@@ -20,6 +20,11 @@ export class CompandedQuantizer extends LevelQuantizer {
   /** Decision magnitudes: mags[m] is the lower edge of magnitude level m (mags[0] = 0). */
   private readonly mags: Float64Array;
   private readonly scale: number;
+  // Inline forms of the compressor for the guess (a virtual call per sample costs
+  // more than the logarithm); the comparison that follows makes any rounding harmless.
+  private readonly guessKind: 0 | 1 | 2;
+  private readonly p: number;
+  private readonly invNorm: number;
 
   constructor(law: CompandingLaw, opts: CompandedOptions, label: string) {
     const bits = opts.bits;
@@ -71,6 +76,18 @@ export class CompandedQuantizer extends LevelQuantizer {
     this.half = half;
     this.mags = mags;
     this.scale = 1 / v;
+    const p = law.parameter;
+    this.p = p;
+    if (law.name === 'mu' && p >= 1e-3) {
+      this.guessKind = 1;
+      this.invNorm = half / Math.log1p(p);
+    } else if (law.name === 'a' && p > 1) {
+      this.guessKind = 2;
+      this.invNorm = half / (1 + Math.log(p));
+    } else {
+      this.guessKind = 0;
+      this.invNorm = half;
+    }
   }
 
   encode(x: number): number {
@@ -78,7 +95,14 @@ export class CompandedQuantizer extends LevelQuantizer {
     if (!(a === a)) return this.half; // NaN
     const half = this.half;
     const mags = this.mags;
-    let m = Math.floor(this.law.compress(a * this.scale) * half);
+    const r = a * this.scale;
+    let g: number;
+    if (this.guessKind === 1) g = Math.log1p(this.p * r) * this.invNorm;
+    else if (this.guessKind === 2) {
+      const ar = this.p * r;
+      g = (ar < 1 ? ar : 1 + Math.log(ar)) * this.invNorm;
+    } else g = this.law.compress(r) * half;
+    let m = Math.floor(g);
     if (m >= half) m = half - 1;
     else if (m < 0) m = 0;
     while (m < half - 1 && a >= mags[m + 1]) m++;

@@ -103,7 +103,8 @@ export function checkBits(bits: number, min: number, max: number, what: string):
 }
 
 export function checkOverloadPoint(v: number): void {
-  if (!Number.isFinite(v) || v <= 0) throw new RangeError(`overload point must be a finite number > 0 (got ${v})`);
+  if (!Number.isFinite(v) || v <= 0)
+    throw new RangeError(`overload point must be a finite number > 0 (got ${v})`);
 }
 
 export function checkLoadCapacity(v: number): void {

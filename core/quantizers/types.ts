@@ -5,7 +5,11 @@
 export interface QuantizerTable {
   /** L-1 ascending decision values; level k covers [decisions[k-1], decisions[k]). */
   readonly decisions: Float64Array;
-  /** L ascending output (quantized) values; outputs[k] lies inside level k. */
+  /**
+   * L output (quantized) values, one per cell, ascending for every quantizer but one:
+   * G.711 mu-law with all-zero suppression sends its lowest cell to 0x02, so outputs[0]
+   * there is above outputs[1].
+   */
   readonly outputs: Float64Array;
 }
 

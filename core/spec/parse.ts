@@ -26,7 +26,8 @@ function parseNumber(text: string, what: string): number {
 
 function parseBits(text: string, min: number, max: number): number {
   const n = parseNumber(text, 'bits');
-  if (!Number.isInteger(n) || n < min || n > max) fail(text, `bits must be a whole number from ${min} to ${max}`);
+  if (!Number.isInteger(n) || n < min || n > max)
+    fail(text, `bits must be a whole number from ${min} to ${max}`);
   return n;
 }
 
@@ -50,7 +51,8 @@ function parseOptions(parts: string[], law: string, allowZs: boolean, allowLevel
       fail(part, `is not an option of ${law}${allowZs ? ' (only zs is)' : ''}`);
     } else if (key === 'seg') {
       const n = parseNumber(value, 'segment count');
-      if (!Number.isInteger(n) || n < 1 || n > 64) fail(part, 'segment count must be a whole number from 1 to 64');
+      if (!Number.isInteger(n) || n < 1 || n > 64)
+        fail(part, 'segment count must be a whole number from 1 to 64');
       opts.segments = n;
     } else if (key === 'ov') {
       const n = parseNumber(value, 'overload point');
@@ -83,7 +85,8 @@ export function parseStage(text: string): StageSpec {
       parseOptions(optionParts, 'g711-a', false, false);
       return { law: 'g711-a' };
     case 'uniform': {
-      if (params.length < 1 || params.length > 2) fail(head, 'expected uniform:BITS or uniform:BITS:tread|rise');
+      if (params.length < 1 || params.length > 2)
+        fail(head, 'expected uniform:BITS or uniform:BITS:tread|rise');
       const bits = parseBits(params[0], 2, 16);
       const formText = (params[1] ?? 'tread').toLowerCase();
       if (formText !== 'tread' && formText !== 'rise') fail(params[1], 'form must be tread or rise');
@@ -114,7 +117,12 @@ export function parseStage(text: string): StageSpec {
       } catch (e) {
         fail(params.slice(-2).join(':'), (e as Error).message.replace(/^table: /, ''));
       }
-      const stage: StageSpec = { law: 'table', decisions, outputs, ...parseOptions(optionParts, 'table', false, true) };
+      const stage: StageSpec = {
+        law: 'table',
+        decisions,
+        outputs,
+        ...parseOptions(optionParts, 'table', false, true),
+      };
       return name === undefined ? stage : { ...stage, name };
     }
     default:

@@ -26,9 +26,14 @@ describe('channel specification text form', () => {
     expect(parseChannel('g711-mu')).toEqual({ stages: [{ law: 'g711-mu' }], rate: 8000 });
     expect(parseChannel('G711-A')).toEqual({ stages: [{ law: 'g711-a' }], rate: 8000 });
     expect(parseChannel('mu:255:8')).toEqual({ stages: [{ law: 'mu', mu: 255, bits: 8 }], rate: 8000 });
-    expect(parseChannel('uniform:12')).toEqual({ stages: [{ law: 'uniform', bits: 12, form: 'tread' }], rate: 8000 });
+    expect(parseChannel('uniform:12')).toEqual({
+      stages: [{ law: 'uniform', bits: 12, form: 'tread' }],
+      rate: 8000,
+    });
     expect(parseChannel('uniform:16:rise,seg=12,ov=0.5,lc=3@16k')).toEqual({
-      stages: [{ law: 'uniform', bits: 16, form: 'rise', segments: 12, overloadPoint: 0.5, loadCapacityDbm0: 3 }],
+      stages: [
+        { law: 'uniform', bits: 16, form: 'rise', segments: 12, overloadPoint: 0.5, loadCapacityDbm0: 3 },
+      ],
       rate: 16000,
     });
     expect(parseChannel('a:87.6:8@native').rate).toBe('native');
@@ -128,7 +133,8 @@ describe('channel specification text form', () => {
   it('every preset parses, builds, and states its bit rate (G.711: 64 kbit/s, ITU-T G.711)', () => {
     for (const p of CHANNEL_PRESETS) {
       const spec = parseChannel(p.text);
-      for (const s of spec.stages) expect(createQuantizer(s).label).toBe(formatChannel({ stages: [s], rate: 8000 }));
+      for (const s of spec.stages)
+        expect(createQuantizer(s).label).toBe(formatChannel({ stages: [s], rate: 8000 }));
       expect(formatChannel(spec)).toBe(p.text);
     }
     expect(channelBitRate(parseChannel('g711-mu'))).toBe(64000);

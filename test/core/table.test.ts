@@ -6,7 +6,11 @@ describe('quantizer from explicit tables', () => {
     for (const text of ['uniform:5:rise', 'uniform:5', 'mu:255:6']) {
       const ref = createQuantizer(text);
       const { decisions, outputs } = ref.table();
-      const t = createQuantizer({ law: 'table', decisions: Array.from(decisions), outputs: Array.from(outputs) });
+      const t = createQuantizer({
+        law: 'table',
+        decisions: Array.from(decisions),
+        outputs: Array.from(outputs),
+      });
       let wrong = 0;
       for (let i = -3000; i <= 3000; i++) {
         const x = i / 2500;
