@@ -3,15 +3,11 @@
 // a comparison against the expanded decision values settles it, so encode() agrees
 // with table() to the last bit and ties go to the level farther from zero.
 import type { CompandingLaw } from '../laws/index';
-import { DEFAULT_LOAD_CAPACITY_DBM0, DEFAULT_SEGMENTS } from '../spec/types';
-import { checkBits, checkLoadCapacity, checkOverloadPoint, LevelQuantizer } from './level-quantizer';
-import { checkSegmentCount } from './segments';
+import type { StageOptions } from '../spec/types';
+import { checkBits, LevelQuantizer, resolveOptions } from './level-quantizer';
 
-export interface CompandedOptions {
+export interface CompandedOptions extends StageOptions {
   bits: number;
-  overloadPoint?: number;
-  loadCapacityDbm0?: number;
-  segments?: number;
 }
 
 export class CompandedQuantizer extends LevelQuantizer {
@@ -29,13 +25,11 @@ export class CompandedQuantizer extends LevelQuantizer {
   constructor(law: CompandingLaw, opts: CompandedOptions, label: string) {
     const bits = opts.bits;
     checkBits(bits, 2, 16, `${law.name}-law`);
-    const v = opts.overloadPoint ?? 1;
-    checkOverloadPoint(v);
-    const lc = opts.loadCapacityDbm0 ?? DEFAULT_LOAD_CAPACITY_DBM0;
-    checkLoadCapacity(lc);
+    const resolved = resolveOptions(opts);
+    const v = resolved.overloadPoint;
+    const lc = resolved.loadCapacityDbm0;
     const half = 1 << (bits - 1);
-    const segs = Math.min(opts.segments ?? DEFAULT_SEGMENTS, half);
-    checkSegmentCount(segs);
+    const segs = Math.min(resolved.segments, half);
 
     const mags = new Float64Array(half + 1);
     const outMags = new Float64Array(half);

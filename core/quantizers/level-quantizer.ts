@@ -1,6 +1,8 @@
 // Common body of the quantizers whose codes index their levels in ascending order
 // (uniform, companded, table). Subclasses supply encode(); everything else is
 // looked up from per-code tables built once, so the hot paths stay allocation-free.
+import { DEFAULT_LOAD_CAPACITY_DBM0, DEFAULT_SEGMENTS, type StageOptions } from '../spec/types';
+import { checkSegmentCount } from './segments';
 import type { QuantizedSample, Quantizer, QuantizerKind, QuantizerTable } from './types';
 
 export interface LevelQuantizerInit {
@@ -102,11 +104,22 @@ export function checkBits(bits: number, min: number, max: number, what: string):
   }
 }
 
-export function checkOverloadPoint(v: number): void {
+/** Options of a configurable stage with their defaults filled in and checked. */
+export function resolveOptions(o: StageOptions): Required<StageOptions> {
+  const overloadPoint = o.overloadPoint ?? 1;
+  checkOverloadPoint(overloadPoint);
+  const loadCapacityDbm0 = o.loadCapacityDbm0 ?? DEFAULT_LOAD_CAPACITY_DBM0;
+  checkLoadCapacity(loadCapacityDbm0);
+  const segments = o.segments ?? DEFAULT_SEGMENTS;
+  checkSegmentCount(segments);
+  return { overloadPoint, loadCapacityDbm0, segments };
+}
+
+function checkOverloadPoint(v: number): void {
   if (!Number.isFinite(v) || v <= 0)
     throw new RangeError(`overload point must be a finite number > 0 (got ${v})`);
 }
 
-export function checkLoadCapacity(v: number): void {
+function checkLoadCapacity(v: number): void {
   if (!Number.isFinite(v)) throw new RangeError(`load capacity must be a finite number of dBm0 (got ${v})`);
 }

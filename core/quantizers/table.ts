@@ -1,9 +1,9 @@
 // Quantizer given by explicit decision and output values (designed quantizers).
 // A sample on an exact decision value goes to the level farther from zero, as in
 // the uniform and companded quantizers.
-import { DEFAULT_LOAD_CAPACITY_DBM0, DEFAULT_SEGMENTS, type TableStage } from '../spec/types';
-import { checkLoadCapacity, checkOverloadPoint, LevelQuantizer } from './level-quantizer';
-import { bandOf, checkSegmentCount, sixDbBandEdges } from './segments';
+import type { TableStage } from '../spec/types';
+import { LevelQuantizer, resolveOptions } from './level-quantizer';
+import { bandOf, sixDbBandEdges } from './segments';
 
 const MAX_LEVELS = 1 << 16;
 
@@ -42,12 +42,7 @@ export class TableQuantizer extends LevelQuantizer {
 
   constructor(stage: TableStage, label: string) {
     checkTable(stage.decisions, stage.outputs);
-    const v = stage.overloadPoint ?? 1;
-    checkOverloadPoint(v);
-    const lc = stage.loadCapacityDbm0 ?? DEFAULT_LOAD_CAPACITY_DBM0;
-    checkLoadCapacity(lc);
-    const segs = stage.segments ?? DEFAULT_SEGMENTS;
-    checkSegmentCount(segs);
+    const { overloadPoint: v, loadCapacityDbm0: lc, segments: segs } = resolveOptions(stage);
     const outputs = Float64Array.from(stage.outputs);
     const decisions = Float64Array.from(stage.decisions);
     const edges = sixDbBandEdges(v, segs);

@@ -2,9 +2,9 @@
 // k = -L/2 .. L/2-1, so uniform:16 at overload 1.0 is exactly 16-bit PCM);
 // mid-rise has symmetric levels (k + 1/2)*step. Exact decision values go to the
 // level farther from zero, which keeps both forms odd-symmetric.
-import { DEFAULT_LOAD_CAPACITY_DBM0, DEFAULT_SEGMENTS, type UniformStage } from '../spec/types';
-import { checkBits, checkLoadCapacity, checkOverloadPoint, LevelQuantizer } from './level-quantizer';
-import { bandOf, checkSegmentCount, sixDbBandEdges } from './segments';
+import type { UniformStage } from '../spec/types';
+import { checkBits, LevelQuantizer, resolveOptions } from './level-quantizer';
+import { bandOf, sixDbBandEdges } from './segments';
 
 export class UniformQuantizer extends LevelQuantizer {
   readonly form: 'tread' | 'rise';
@@ -15,12 +15,7 @@ export class UniformQuantizer extends LevelQuantizer {
   constructor(stage: UniformStage, label: string) {
     const bits = stage.bits;
     checkBits(bits, 2, 16, 'uniform');
-    const v = stage.overloadPoint ?? 1;
-    checkOverloadPoint(v);
-    const lc = stage.loadCapacityDbm0 ?? DEFAULT_LOAD_CAPACITY_DBM0;
-    checkLoadCapacity(lc);
-    const segs = stage.segments ?? DEFAULT_SEGMENTS;
-    checkSegmentCount(segs);
+    const { overloadPoint: v, loadCapacityDbm0: lc, segments: segs } = resolveOptions(stage);
     const levels = 1 << bits;
     const half = levels >> 1;
     const step = (2 * v) / levels;
