@@ -9,6 +9,8 @@ import {
   runFigures,
   type BenchArgs,
 } from './harness';
+import './figures-channel';
+import './figures-measure';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 

@@ -94,7 +94,8 @@ export function isNodeBuiltin(specifier: string): boolean {
 
 /** Packages each layer may use by bare name (besides Node builtins where allowed). */
 const PACKAGES: Record<Layer, readonly string[]> = {
-  core: [],
+  // fft.js is plain JavaScript with no DOM or Node use, so core stays runnable everywhere.
+  core: ['fft.js'],
   worklet: [],
   renderer: ['uplot'],
   main: ['electron'],

@@ -1,0 +1,24 @@
+// The voice-channel path: filter design, rate changers and the path itself.
+export { ChannelPath, ChannelAtRate, RateGroup, type ChannelPathOptions } from './path';
+export {
+  planRate,
+  channelBand,
+  stageFactors,
+  STOPBAND_REQUIRED_DB,
+  STOPBAND_DESIGN_DB,
+  PASSBAND_RIPPLE_ALLOWED_DB,
+  type RatePlan,
+  type RateStage,
+  type ChannelBand,
+} from './rate-plan';
+export {
+  designLowpass,
+  kaiserBeta,
+  kaiserOrder,
+  kaiserWindow,
+  besselI0,
+  type LowpassSpec,
+  type LowpassDesign,
+} from './fir-design';
+export { FirDecimator, FirInterpolator } from './polyphase';
+export { DelayLine } from './delay-line';
