@@ -11,6 +11,7 @@ import {
 } from './harness';
 import './figures-channel';
 import './figures-measure';
+import './figures-analysis';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 
