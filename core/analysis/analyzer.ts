@@ -15,6 +15,7 @@
 import { ChannelPath } from '../channel/path';
 import { ChannelMeter, type ChannelMeterOptions } from '../measure/channel-meter';
 import { SignalMeter } from '../measure/meters';
+import { PowerSpectrum } from '../measure/spectrum';
 import type { ChannelSnapshot, TalkerSnapshot } from '../measure/snapshot';
 import type { SignalMeterSnapshot } from '../measure/meters';
 import { TalkerMeter, type TalkerMeterOptions } from '../measure/talker-meter';
@@ -34,9 +35,9 @@ function chunkLength(rate: number): number {
 }
 
 function copy(
-  from: Float64Array | Int32Array | Uint8Array,
+  from: ArrayLike<number>,
   at: number,
-  to: Float64Array | Int32Array | Uint8Array,
+  to: { [i: number]: number },
   into: number,
   n: number,
 ): void {
@@ -121,6 +122,8 @@ export class Analyzer {
   readonly specs: readonly ChannelSpec[];
   readonly raw: SignalMeter;
   readonly talkers: readonly TalkerMeter[];
+  /** One signal spectrum per rate group (indexed as talkers): channels at one rate share their input. */
+  readonly spectra: readonly PowerSpectrum[];
   readonly meters: readonly ChannelMeter[];
   /** For each channel, the index of its talker meter. */
   readonly talkerOf: Int32Array;
@@ -142,6 +145,8 @@ export class Analyzer {
     });
     this.raw = new SignalMeter({ rate: options.inputRate, overloadPoint: 1, clipLevel: PCM16_CLIP });
     const talkers: TalkerMeter[] = [];
+    const spectra: PowerSpectrum[] = [];
+    const mo = options.meter;
     const rates: number[] = [];
     this.talkerOf = new Int32Array(this.specs.length);
     this.meters = this.specs.map((spec, i) => {
@@ -159,6 +164,9 @@ export class Analyzer {
             loadCapacityDbm0: q.loadCapacityDbm0,
           }),
         );
+        spectra.push(
+          new PowerSpectrum(at.rateHz, mo?.spectrumSize, mo?.spectrumRecentSeconds, mo?.spectrumOverlap),
+        );
       }
       this.talkerOf[i] = t;
       return new ChannelMeter({
@@ -168,6 +176,7 @@ export class Analyzer {
       });
     });
     this.talkers = talkers;
+    this.spectra = spectra;
     this.stages = rates.map((rate, t) => {
       const members: number[] = [];
       this.talkerOf.forEach((tt, i) => {
@@ -210,41 +219,63 @@ export class Analyzer {
     for (let t = 0; t < this.stages.length; t++) this.flush(t);
   }
 
+  // Whole chunks go to the accumulators straight from the caller's or the path's
+  // buffers; only a chunk that straddles two blocks is copied into the stage.
   private stageRaw(block: ArrayLike<number>, n: number): void {
     const stage = this.rawStage;
     const size = stage.length;
-    let fill = this.rawFill;
-    for (let i = 0; i < n; i++) {
-      stage[fill++] = block[i];
-      if (fill === size) {
-        this.raw.add(stage, 0, size);
-        fill = 0;
-      }
+    let i = 0;
+    if (this.rawFill > 0) {
+      const take = Math.min(size - this.rawFill, n);
+      copy(block, 0, stage, this.rawFill, take);
+      this.rawFill += take;
+      i = take;
+      if (this.rawFill < size) return;
+      this.raw.add(stage, 0, size);
+      this.rawFill = 0;
     }
-    this.rawFill = fill;
+    for (; i + size <= n; i += size) this.raw.add(block, i, i + size);
+    copy(block, i, stage, 0, n - i);
+    this.rawFill = n - i;
   }
 
   private stageGroup(t: number): void {
     const stage = this.stages[t];
+    const size = stage.size;
     const members = stage.channels;
     const atRate = this.path.atRate;
     const first = atRate[members[0]];
     const len = first.length;
     let done = 0;
-    while (done < len) {
-      const take = Math.min(stage.size - stage.fill, len - done);
-      // Plain loops: subarray() would allocate a view per block.
-      copy(first.reference, done, stage.reference, stage.fill, take);
+    if (stage.fill > 0) {
+      done = Math.min(size - stage.fill, len);
+      this.stageCopy(t, 0, done);
+      if (stage.fill < size) return;
+      this.flush(t);
+    }
+    for (; done + size <= len; done += size) {
+      this.talkers[t].add(first.reference, done, done + size);
+      this.spectra[t].add(first.reference, done, size);
       for (let m = 0; m < members.length; m++) {
         const a = atRate[members[m]];
-        copy(a.output, done, stage.outputs[m], stage.fill, take);
-        copy(a.codes, done, stage.codes[m], stage.fill, take);
-        copy(a.segments, done, stage.segments[m], stage.fill, take);
+        this.meters[members[m]].add(a.reference, a.output, a.codes, a.segments, done, done + size);
       }
-      stage.fill += take;
-      done += take;
-      if (stage.fill === stage.size) this.flush(t);
     }
+    this.stageCopy(t, done, len - done);
+  }
+
+  private stageCopy(t: number, from: number, n: number): void {
+    const stage = this.stages[t];
+    const members = stage.channels;
+    const atRate = this.path.atRate;
+    copy(atRate[members[0]].reference, from, stage.reference, stage.fill, n);
+    for (let m = 0; m < members.length; m++) {
+      const a = atRate[members[m]];
+      copy(a.output, from, stage.outputs[m], stage.fill, n);
+      copy(a.codes, from, stage.codes[m], stage.fill, n);
+      copy(a.segments, from, stage.segments[m], stage.fill, n);
+    }
+    stage.fill += n;
   }
 
   private flush(t: number): void {
@@ -252,6 +283,7 @@ export class Analyzer {
     const n = stage.fill;
     if (n === 0) return;
     this.talkers[t].add(stage.reference, 0, n);
+    this.spectra[t].add(stage.reference, 0, n);
     const members = stage.channels;
     for (let m = 0; m < members.length; m++) {
       this.meters[members[m]].add(stage.reference, stage.outputs[m], stage.codes[m], stage.segments[m], 0, n);
@@ -264,6 +296,7 @@ export class Analyzer {
     this.raw.reset();
     for (const t of this.talkers) t.reset();
     for (const m of this.meters) m.reset();
+    for (const sp of this.spectra) sp.reset();
     for (const st of this.stages) st.fill = 0;
     this.rawFill = 0;
     this.inputCount = 0;

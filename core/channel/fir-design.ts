@@ -6,6 +6,14 @@
 // Discrete-Time Signal Processing). The window method gives about the same ripple
 // in passband and stopband (delta), so the stopband figure sets the passband too:
 // 60 dB leaves a passband ripple near 0.02 dB peak to peak.
+//
+// Half-band filters: a lowpass cut off at a quarter of its rate, with the band edges
+// symmetric about it (pass + stop = rate / 2). Its ideal response sinc(t / 2) is
+// zero at every even t except the centre, and the window keeps those zeros, so
+// nearly half the taps are zero and a rate changer by 2 skips them (polyphase.ts).
+// Its response is complementary, H(f) + H(rate/2 - f) = 2 h[centre] = 1, so the
+// passband deviation equals the stopband's delta exactly (P. P. Vaidyanathan,
+// Multirate Systems and Filter Banks, 1993, on half-band filters, from memory).
 
 /** What a lowpass prototype must do; frequencies in Hz at `rateHz`. */
 export interface LowpassSpec {
@@ -24,6 +32,11 @@ export interface LowpassDesign extends LowpassSpec {
   readonly beta: number;
   /** Group delay in samples at `rateHz`: (length - 1) / 2, a whole number. */
   readonly delay: number;
+  /**
+   * A half-band design: length 4K - 1, centre tap exactly 1/2, every other tap
+   * exactly 0 (those at an even, non-zero distance from the centre).
+   */
+  readonly halfband: boolean;
 }
 
 /** Kaiser's beta for a stopband attenuation in dB (Kaiser 1974). */
@@ -76,8 +89,7 @@ export function kaiserWindow(length: number, beta: number): Float64Array {
   return w;
 }
 
-/** Designs a linear-phase lowpass meeting `spec` by the Kaiser window method. */
-export function designLowpass(spec: LowpassSpec): LowpassDesign {
+function checkSpec(spec: LowpassSpec): void {
   const { rateHz, passHz, stopHz, attenuationDb } = spec;
   if (!(rateHz > 0)) throw new RangeError(`rate must be > 0 (got ${rateHz})`);
   if (!(passHz > 0 && passHz < stopHz && stopHz <= rateHz / 2))
@@ -85,22 +97,62 @@ export function designLowpass(spec: LowpassSpec): LowpassDesign {
       `lowpass edges must satisfy 0 < pass < stop <= rate/2 (got ${passHz}, ${stopHz}, ${rateHz})`,
     );
   if (!(attenuationDb > 0)) throw new RangeError(`attenuation must be > 0 dB (got ${attenuationDb})`);
-  const order = kaiserOrder(attenuationDb, (stopHz - passHz) / rateHz);
+}
+
+/** Kaiser-windowed ideal lowpass cut off at fc (cycles per sample), of even order. */
+function windowedSinc(order: number, fc: number, beta: number): Float64Array {
   const length = order + 1;
-  const beta = kaiserBeta(attenuationDb);
   const w = kaiserWindow(length, beta);
-  // Ideal lowpass cut off mid-transition, in cycles per sample.
-  const fc = (passHz + stopHz) / 2 / rateHz;
   const taps = new Float64Array(length);
   const mid = order / 2;
-  let sum = 0;
   for (let n = 0; n < length; n++) {
     const t = n - mid;
     const ideal = t === 0 ? 2 * fc : Math.sin(2 * Math.PI * fc * t) / (Math.PI * t);
     taps[n] = ideal * w[n];
-    sum += taps[n];
   }
+  return taps;
+}
+
+/** Designs a linear-phase lowpass meeting `spec` by the Kaiser window method. */
+export function designLowpass(spec: LowpassSpec): LowpassDesign {
+  checkSpec(spec);
+  const { rateHz, passHz, stopHz, attenuationDb } = spec;
+  const order = kaiserOrder(attenuationDb, (stopHz - passHz) / rateHz);
+  const beta = kaiserBeta(attenuationDb);
+  // Ideal lowpass cut off mid-transition, in cycles per sample.
+  const taps = windowedSinc(order, (passHz + stopHz) / 2 / rateHz, beta);
+  let sum = 0;
+  for (let n = 0; n < taps.length; n++) sum += taps[n];
   // Unit DC gain, so a level in dBov means the same before and after the filter.
-  for (let n = 0; n < length; n++) taps[n] /= sum;
-  return { rateHz, passHz, stopHz, attenuationDb, taps, beta, delay: mid };
+  for (let n = 0; n < taps.length; n++) taps[n] /= sum;
+  return { rateHz, passHz, stopHz, attenuationDb, taps, beta, delay: order / 2, halfband: false };
+}
+
+/**
+ * Designs a half-band lowpass (pass + stop = rate / 2 exactly) by the Kaiser window
+ * method. The order is the Kaiser estimate rounded up to 4K - 2, so the outermost
+ * taps are not among the zeros; the zeros and the centre's 1/2 are set exactly, and
+ * the other taps scaled to sum to 1/2, which keeps both unit DC gain and the
+ * complementary response.
+ */
+export function designHalfband(spec: LowpassSpec): LowpassDesign {
+  checkSpec(spec);
+  const { rateHz, passHz, stopHz, attenuationDb } = spec;
+  if (Math.abs(passHz + stopHz - rateHz / 2) > 1e-9 * rateHz)
+    throw new RangeError(
+      `a half-band filter needs pass + stop = rate/2 (got ${passHz} + ${stopHz}, rate ${rateHz})`,
+    );
+  const estimate = kaiserOrder(attenuationDb, (stopHz - passHz) / rateHz);
+  const order = estimate % 4 === 2 ? estimate : estimate + 2;
+  const beta = kaiserBeta(attenuationDb);
+  const taps = windowedSinc(order, 0.25, beta);
+  const mid = order / 2;
+  let odd = 0;
+  for (let n = 0; n < taps.length; n++) {
+    if ((n - mid) % 2 === 0) taps[n] = 0;
+    else odd += taps[n];
+  }
+  for (let n = 0; n < taps.length; n++) taps[n] *= 0.5 / odd;
+  taps[mid] = 0.5;
+  return { rateHz, passHz, stopHz, attenuationDb, taps, beta, delay: mid, halfband: true };
 }

@@ -13,6 +13,7 @@ export {
 } from './rate-plan';
 export {
   designLowpass,
+  designHalfband,
   kaiserBeta,
   kaiserOrder,
   kaiserWindow,
@@ -20,5 +21,15 @@ export {
   type LowpassSpec,
   type LowpassDesign,
 } from './fir-design';
-export { FirDecimator, FirInterpolator } from './polyphase';
+export {
+  FirDecimator,
+  FirInterpolator,
+  HalfbandDecimator,
+  HalfbandInterpolator,
+  createDecimator,
+  createInterpolator,
+  isHalfband,
+  type Decimator,
+  type Interpolator,
+} from './polyphase';
 export { DelayLine } from './delay-line';

@@ -41,7 +41,7 @@ import { formatChannel } from '../spec/format';
 import { parseChannel } from '../spec/parse';
 import type { ChannelSpec } from '../spec/types';
 import { DelayLine } from './delay-line';
-import { FirDecimator, FirInterpolator } from './polyphase';
+import { createDecimator, createInterpolator, type Decimator, type Interpolator } from './polyphase';
 import { planRate, type RatePlan } from './rate-plan';
 
 export interface ChannelPathOptions {
@@ -163,8 +163,7 @@ export class ChannelAtRate {
 
 /** From channel rate back to the input rate, then onto the common latency. */
 class UpChain {
-  private readonly interps: FirInterpolator[];
-  private readonly buffers: Float64Array[];
+  private readonly interps: Interpolator[];
   private readonly pending: Float64Array;
   /** Samples made ahead of the input (fewer than the factor), kept for the next block. */
   private have = 0;
@@ -173,12 +172,10 @@ class UpChain {
   constructor(plan: RatePlan, capacity: number, addedDelay: number) {
     const up = [...plan.stages].reverse();
     this.interps = [];
-    this.buffers = [];
     let size = capacity;
     for (let j = 0; j < up.length; j++) {
-      this.interps.push(new FirInterpolator(up[j].design.taps, up[j].factor, size));
+      this.interps.push(createInterpolator(up[j].design.taps, up[j].factor, size));
       size *= up[j].factor;
-      if (j < up.length - 1) this.buffers.push(new Float64Array(size));
     }
     this.pending = new Float64Array(capacity * plan.factor + plan.factor);
     this.delay = new DelayLine(addedDelay);
@@ -197,13 +194,15 @@ class UpChain {
       this.delay.process(input, n, out);
       return;
     }
+    // Each stage writes straight into the next one's inlet, so nothing is copied between.
     let src = input;
     let count = k;
     const last = interps.length - 1;
     for (let j = 0; j < last; j++) {
-      interps[j].process(src, 0, count, this.buffers[j], 0);
+      const dst = interps[j + 1].inlet;
+      interps[j].process(src, 0, count, dst, 0);
       count *= interps[j].factor;
-      src = this.buffers[j];
+      src = dst;
     }
     const pending = this.pending;
     interps[last].process(src, 0, count, pending, this.have);
@@ -233,8 +232,7 @@ export class RateGroup {
   readonly outputs48: Float64Array[] = [];
   length = 0;
   first = 0;
-  private readonly decimators: FirDecimator[];
-  private readonly stageBuffers: Float64Array[];
+  private readonly decimators: Decimator[];
   private readonly views: LengthViews;
   private refUp: UpChain | undefined;
   private readonly outUps: UpChain[] = [];
@@ -245,14 +243,10 @@ export class RateGroup {
     this.factor = this.plan.factor;
     this.capacity = Math.ceil(maxBlock / this.factor);
     this.decimators = [];
-    this.stageBuffers = [];
     let reach = 1;
-    for (let s = 0; s < this.plan.stages.length; s++) {
-      const st = this.plan.stages[s];
-      this.decimators.push(new FirDecimator(st.design.taps, st.factor, Math.ceil(maxBlock / reach)));
+    for (const st of this.plan.stages) {
+      this.decimators.push(createDecimator(st.design.taps, st.factor, Math.ceil(maxBlock / reach)));
       reach *= st.factor;
-      if (s < this.plan.stages.length - 1)
-        this.stageBuffers.push(new Float64Array(Math.ceil(maxBlock / reach)));
     }
     this.reference = new Float64Array(this.capacity);
     this.views = new LengthViews(this.reference);
@@ -291,10 +285,11 @@ export class RateGroup {
       for (let i = 0; i < n; i++) ref[i] = x[i];
       k = n;
     } else {
-      let src = x;
+      // Each stage writes straight into the next one's inlet, so nothing is copied between.
+      let src: Float64Array = x;
       k = n;
       for (let s = 0; s < dec.length; s++) {
-        const dst = s === dec.length - 1 ? this.reference : this.stageBuffers[s];
+        const dst = s === dec.length - 1 ? this.reference : dec[s + 1].inlet;
         k = dec[s].process(src, 0, k, dst, 0);
         src = dst;
       }
@@ -392,7 +387,11 @@ export class ChannelPath {
     }
     const g = this.gain;
     const x = this.input48;
-    for (let i = 0; i < n; i++) x[i] = input[i] * g;
+    if (n === input.length && (input instanceof Float32Array || input instanceof Float64Array)) {
+      // A whole typed block: a native copy, then the gain in place (x * 1 is x, so 0 dB skips it).
+      x.set(input);
+      if (g !== 1) for (let i = 0; i < n; i++) x[i] *= g;
+    } else for (let i = 0; i < n; i++) x[i] = input[i] * g;
     const groups = this.groups;
     for (let j = 0; j < groups.length; j++) groups[j].process(x, n);
   }

@@ -183,7 +183,8 @@ export class ActiveLevelMeter {
       for (; i < stop; i++) {
         const s = x[i];
         sq += s * s;
-        p = g * p + h * (s < 0 ? -s : s);
+        // Math.abs, not a comparison: the sign would be a branch mispredicted half the time.
+        p = g * p + h * Math.abs(s);
         q = g * q + h * p;
         while (k < top && q >= c[k]) k++;
         while (k > 0 && q < c[k - 1]) k--;

@@ -8,7 +8,7 @@ import { SegmentalSnr, type FrameSnrClamp } from './segmental';
 import { SegmentLedger } from './segments';
 import { emptyChannelSnapshot, snrDbOrNull, type ChannelSnapshot } from './snapshot';
 import { defaultSpectrumSize, PowerSpectrum } from './spectrum';
-import { defaultPsophometricTaps, PsophometricFilter } from './weighting';
+import { psophometricBinWeights } from './weighting';
 
 /** What the meter needs to know of its quantizer (a Quantizer has all of it). */
 export type MeteredQuantizer = Pick<
@@ -32,15 +32,21 @@ export interface ChannelMeterOptions {
   clamp?: FrameSnrClamp | null;
   silenceFloorDbov?: number;
   traceFrames?: number;
-  /** ITU-T O.41 weighting of the error: off by default; true or a tap count turns it on. */
-  weighting?: boolean | { taps: number };
+  /** ITU-T O.41 weighting of the error (off by default), taken from the error spectrum (weighting.ts). */
+  weighting?: boolean;
   /** Spectrum transform length (power of two; default about 32 ms), recent-average time constant (1 s), frame overlap (0). */
   spectrumSize?: number;
   spectrumRecentSeconds?: number;
   spectrumOverlap?: 0 | 0.5;
+  /**
+   * The signal spectrum: 'own' (default) is kept and fed by this meter; a PowerSpectrum
+   * at the same rate and size is one that channels sharing the same input share. The
+   * meter then neither feeds nor resets it (its owner does both) and only reports it.
+   */
+  signalSpectrum?: PowerSpectrum | 'own';
 }
 
-/** Samples handled per inner pass: the error is formed once into scratch and shared. */
+/** Samples handled per inner pass: the error is formed once into scratch for the spectra. */
 const CHUNK = 256;
 
 export class ChannelMeter {
@@ -52,8 +58,11 @@ export class ChannelMeter {
   readonly codes: CodeOccupancy;
   readonly segmental: SegmentalSnr;
   readonly signalSpectrum: PowerSpectrum;
+  /** Whether signalSpectrum is this meter's own (fed and reset here) or shared. */
+  readonly ownsSignalSpectrum: boolean;
   readonly errorSpectrum: PowerSpectrum;
-  readonly weighting: PsophometricFilter | null;
+  /** O.41 power weight per error-spectrum bin, or null with the weighting off. */
+  readonly weights: Float64Array | null;
   private readonly edgesDbov: Float64Array;
   private readonly sig = new Float64Array(CHUNK);
   private readonly err = new Float64Array(CHUNK);
@@ -80,15 +89,21 @@ export class ChannelMeter {
       silenceFloorDbov: opts.silenceFloorDbov,
       traceFrames: opts.traceFrames,
     });
-    const size = opts.spectrumSize ?? defaultSpectrumSize(opts.rate);
+    const shared = opts.signalSpectrum ?? 'own';
+    const size = opts.spectrumSize ?? (shared === 'own' ? defaultSpectrumSize(opts.rate) : shared.size);
     const overlap = opts.spectrumOverlap ?? 0;
-    this.signalSpectrum = new PowerSpectrum(opts.rate, size, opts.spectrumRecentSeconds, overlap);
     this.errorSpectrum = new PowerSpectrum(opts.rate, size, opts.spectrumRecentSeconds, overlap);
-    const w = opts.weighting ?? false;
-    this.weighting =
-      w === false
-        ? null
-        : new PsophometricFilter(opts.rate, w === true ? defaultPsophometricTaps(opts.rate) : w.taps);
+    if (shared === 'own') {
+      this.signalSpectrum = new PowerSpectrum(opts.rate, size, opts.spectrumRecentSeconds, overlap);
+    } else if (shared.rate !== opts.rate || shared.size !== size) {
+      throw new RangeError(
+        `shared signal spectrum: ${shared.size} points at ${shared.rate} Hz, the meter needs ${size} at ${opts.rate} Hz`,
+      );
+    } else {
+      this.signalSpectrum = shared;
+    }
+    this.ownsSignalSpectrum = shared === 'own';
+    this.weights = opts.weighting === true ? psophometricBinWeights(opts.rate, size) : null;
     this.edgesDbov = new Float64Array(q.segmentCount + 1);
     for (let s = 0; s <= q.segmentCount; s++) {
       this.edgesDbov[s] = 20 * Math.log10(q.segmentEdges[s] / q.overloadPoint);
@@ -103,9 +118,8 @@ export class ChannelMeter {
     this.ledger.reset();
     this.codes.reset();
     this.segmental.reset();
-    this.signalSpectrum.reset();
+    if (this.ownsSignalSpectrum) this.signalSpectrum.reset();
     this.errorSpectrum.reset();
-    this.weighting?.reset();
   }
 
   /**
@@ -128,36 +142,57 @@ export class ChannelMeter {
     const sig = this.sig;
     const err = this.err;
     const v = this.overloadPoint;
-    let s2 = 0;
-    let e2 = 0;
+    const ledger = this.ledger;
+    const counts = ledger.counts;
+    const segSignal = ledger.signalEnergy;
+    const segError = ledger.errorEnergy;
+    const top = ledger.segmentCount;
+    const segmental = this.segmental;
+    const own = this.ownsSignalSpectrum;
     let over = 0;
-    for (let at = start; at < end; at += CHUNK) {
-      const len = Math.min(CHUNK, end - at);
+    let at = start;
+    while (at < end) {
+      // Pieces end at segmental frames too, so one pass gives the overall, per-segment
+      // and per-frame sums at once.
+      const len = Math.min(CHUNK, end - at, segmental.room);
+      let segs: ArrayLike<number> = this.seg;
+      let segAt = 0;
+      if (segments !== undefined) {
+        segs = segments;
+        segAt = at;
+      } else {
+        const seg = this.seg;
+        for (let i = 0; i < len; i++) seg[i] = this.quantizer.segmentOf(input[at + i]);
+      }
+      let s2 = 0;
+      let e2 = 0;
       for (let i = 0; i < len; i++) {
         const x = input[at + i];
         const d = output[at + i] - x;
         sig[i] = x;
         err[i] = d;
-        s2 += x * x;
-        e2 += d * d;
+        const xx = x * x;
+        const dd = d * d;
+        s2 += xx;
+        e2 += dd;
         if (x > v || x < -v) over++;
-      }
-      if (segments !== undefined) {
-        this.ledger.add(sig, err, 0, segments, at, len);
-      } else {
-        const seg = this.seg;
-        for (let i = 0; i < len; i++) seg[i] = this.quantizer.segmentOf(sig[i]);
-        this.ledger.add(sig, err, 0, seg, 0, len);
+        // Segment numbers outside the ledger are not counted.
+        const g = segs[segAt + i];
+        if (g < top) {
+          counts[g]++;
+          segSignal[g] += xx;
+          segError[g] += dd;
+        }
       }
       if (codes !== undefined && this.codeCount > 0) this.codes.add(codes, at, at + len);
-      this.segmental.add(sig, err, 0, len);
-      this.signalSpectrum.add(sig, 0, len);
+      segmental.addEnergy(s2, e2, len);
+      if (own) this.signalSpectrum.add(sig, 0, len);
       this.errorSpectrum.add(err, 0, len);
-      if (this.weighting !== null) this.weighting.add(err, 0, len);
+      this.signalEnergy += s2;
+      this.errorEnergy += e2;
+      at += len;
     }
     this.n += end - start;
-    this.signalEnergy += s2;
-    this.errorEnergy += e2;
     this.overloads += over;
   }
 
@@ -190,17 +225,15 @@ export class ChannelMeter {
     into.loadCapacityDbm0 = q.loadCapacityDbm0;
     into.samples = n;
     into.overloads = this.overloads;
-    into.signalPower = n > 0 ? this.signalEnergy / n : 0;
-    into.errorPower = n > 0 ? this.errorEnergy / n : 0;
+    const signalPower = n > 0 ? this.signalEnergy / n : 0;
+    const errorPower = n > 0 ? this.errorEnergy / n : 0;
+    into.signalPower = signalPower;
+    into.errorPower = errorPower;
     into.snrDb = snrDbOrNull(this.signalEnergy, this.errorEnergy);
-    into.weighted = this.weighting !== null;
-    const w = this.weighting;
-    // The filter adds its energy a block at a time: its own output count is the divisor.
-    into.weightedErrorPower = w !== null && w.outputs > 0 ? w.energySum / w.outputs : null;
-    into.weightedSnrDb =
-      w !== null && w.outputs > 0 && n > 0
-        ? snrDbOrNull(this.signalEnergy / n, w.energySum / w.outputs)
-        : null;
+    into.weighted = this.weights !== null;
+    const weighted = this.weightedErrorPower(errorPower);
+    into.weightedErrorPower = weighted;
+    into.weightedSnrDb = weighted === null ? null : snrDbOrNull(signalPower, weighted);
     segs.edgesDbov.set(this.edgesDbov);
     segs.counts.set(this.ledger.counts);
     segs.signalEnergy.set(this.ledger.signalEnergy);
@@ -211,5 +244,20 @@ export class ChannelMeter {
     this.signalSpectrum.snapshot(into.signalSpectrum);
     this.errorSpectrum.snapshot(into.errorSpectrum);
     return into;
+  }
+
+  /**
+   * O.41-weighted error power: the error spectrum's weighted share of its total
+   * (weighting.ts), times the exact error power. Scaling the share rather than taking
+   * the weighted bins as they are leaves a flat weight without effect and keeps the
+   * window's estimate of the level out of the figure. Null with the weighting off,
+   * with no samples, and while the error so far lies only in a frame not yet complete.
+   */
+  private weightedErrorPower(errorPower: number): number | null {
+    const w = this.weights;
+    if (w === null || this.n === 0) return null;
+    if (this.errorEnergy === 0) return 0;
+    const total = this.errorSpectrum.meanPower();
+    return total > 0 ? errorPower * (this.errorSpectrum.meanPower(w) / total) : null;
   }
 }

@@ -56,10 +56,11 @@ export class LevelHistogram {
     this.keyBase = bitsKey(rel[0]) - 1;
     const top = bitsKey(1) + 1;
     this.lookup = new Uint8Array(top - this.keyBase + 1);
+    // Keys of positive floats ascend with the value, so each bin search goes on from the last.
+    let b = 0;
     for (let key = this.keyBase; key <= top; key++) {
       U32[0] = key << KEY_SHIFT;
       const r = F32[0];
-      let b = 0;
       while (b < LEVEL_BIN_COUNT - 1 && r >= rel[b + 1]) b++;
       this.lookup[key - this.keyBase] = b;
     }
@@ -89,7 +90,8 @@ export class LevelHistogram {
     let over = 0;
     for (let i = start; i < end; i++) {
       const s = x[i];
-      const a = s < 0 ? -s : s;
+      // Math.abs, not a comparison: the sign of speech is a coin toss that no branch predicts.
+      const a = Math.abs(s);
       if (a > v) {
         over++;
         continue;

@@ -127,7 +127,6 @@ export class SignalMeter {
   add(x: ArrayLike<number>, start = 0, end = x.length): void {
     const over = this.overloadPoint;
     const clip = this.clipLevel;
-    // Samples below both thresholds (nearly all) take one predictable branch.
     const rare = Math.min(over, clip);
     let sum = 0;
     let sumSq = 0;
@@ -141,6 +140,7 @@ export class SignalMeter {
     let i = start;
     while (i < end) {
       // Up to the end of the momentary interval, so its figures need no per-sample branch.
+      const from = i;
       const stop = Math.min(end, i + this.intervalLength - this.intervalFill);
       const len = stop - i;
       let imax = -Infinity;
@@ -150,22 +150,28 @@ export class SignalMeter {
         const s = x[i];
         sum += s;
         isq += s * s;
-        imax = Math.max(imax, s);
-        imin = Math.min(imin, s);
-        if (s >= rare || s <= -rare) {
-          const a = s < 0 ? -s : s;
+        if (s > imax) imax = s;
+        if (s < imin) imin = s;
+      }
+      // Overloads and clipped runs need a second look only where some sample reached the
+      // lower of the two thresholds (rarely), or to close a run left open.
+      if (!(imax < rare && -imin < rare)) {
+        for (let j = from; j < stop; j++) {
+          const a = Math.abs(x[j]);
           if (a > over) overloads++;
           if (a >= clip) {
             run++;
-            continue;
+          } else if (run > 0) {
+            // A clipped run just ended.
+            if (run >= minRun) runs++;
+            if (run > longest) longest = run;
+            run = 0;
           }
         }
-        if (run > 0) {
-          // A clipped run just ended.
-          if (run >= minRun) runs++;
-          if (run > longest) longest = run;
-          run = 0;
-        }
+      } else if (run > 0) {
+        if (run >= minRun) runs++;
+        if (run > longest) longest = run;
+        run = 0;
       }
       max = Math.max(max, imax);
       min = Math.min(min, imin);

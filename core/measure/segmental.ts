@@ -232,6 +232,26 @@ export class SegmentalSnr {
     }
   }
 
+  /** Samples still missing from the frame being filled. */
+  get room(): number {
+    return this.frameLength - this.frameFill;
+  }
+
+  /**
+   * Adds the signal and error energies of `length` samples summed by the caller, who
+   * keeps each call within one frame (length <= room); for callers that take the sums
+   * anyway in a pass of their own.
+   */
+  addEnergy(signalEnergy: number, errorEnergy: number, length: number): void {
+    if (length > this.frameLength - this.frameFill) {
+      throw new RangeError(`segmental: ${length} samples do not fit the ${this.room} left in the frame`);
+    }
+    this.frameSignal += signalEnergy;
+    this.frameError += errorEnergy;
+    this.frameFill += length;
+    if (this.frameFill >= this.frameLength) this.closeFrame();
+  }
+
   private closeFrame(): void {
     const s = this.frameSignal;
     const e = this.frameError;

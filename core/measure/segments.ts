@@ -1,6 +1,8 @@
 // The segment ledger: for each segment (chord) of a quantizer, how many input
 // samples fell in it and their signal and error energy, so each segment has its own
 // occupancy and SNR. The segment of a sample is the quantizer's (from its code).
+// ChannelMeter.add fills the arrays in its single pass over each piece (segment
+// numbers outside the ledger are not counted); the ledger holds and reads them.
 
 export class SegmentLedger {
   readonly counts: Float64Array;
@@ -20,34 +22,6 @@ export class SegmentLedger {
     this.counts.fill(0);
     this.signalEnergy.fill(0);
     this.errorEnergy.fill(0);
-  }
-
-  /**
-   * Adds samples: signal[i] and error[i] (output - input) for segments[i], with
-   * signal and error indexed from `from`, segments from `segFrom`, `length` samples.
-   * Segment numbers outside the range are ignored.
-   */
-  add(
-    signal: ArrayLike<number>,
-    error: ArrayLike<number>,
-    from: number,
-    segments: ArrayLike<number>,
-    segFrom: number,
-    length: number,
-  ): void {
-    const c = this.counts;
-    const se = this.signalEnergy;
-    const ee = this.errorEnergy;
-    const top = this.segmentCount;
-    for (let i = 0; i < length; i++) {
-      const s = segments[segFrom + i];
-      if (s >= top) continue;
-      const x = signal[from + i];
-      const e = error[from + i];
-      c[s]++;
-      se[s] += x * x;
-      ee[s] += e * e;
-    }
   }
 
   /** SNR of each segment into `out`: NaN where a segment has no samples, +Infinity where it has no error. */

@@ -149,6 +149,29 @@ export class PowerSpectrum {
     this.frames++;
   }
 
+  /** Frames averaged since reset. */
+  get frameCount(): number {
+    return this.frames;
+  }
+
+  /**
+   * The mean over frames of sum_k P(k) w(k): with no weights the mean square of the
+   * framed samples (Parseval); with size/2 + 1 power weights |W(f_k)|^2 the power of
+   * the stream filtered by W. 0 before the first frame.
+   */
+  meanPower(weights?: Float64Array): number {
+    if (this.frames === 0) return 0;
+    const sum = this.sum;
+    let p = 0;
+    if (weights === undefined) {
+      for (let k = 0; k < this.bins; k++) p += sum[k];
+    } else {
+      if (weights.length !== this.bins) throw new RangeError('spectrum: weights do not match the bins');
+      for (let k = 0; k < this.bins; k++) p += sum[k] * weights[k];
+    }
+    return p / this.frames;
+  }
+
   snapshot(into: SpectrumSnapshot = emptySpectrumSnapshot(this.size)): SpectrumSnapshot {
     if (into.mean.length !== this.bins || into.recent.length !== this.bins) {
       throw new RangeError('spectrum snapshot: buffers do not match this meter');

@@ -84,6 +84,8 @@ describe('the analyzer wires every accumulator where it belongs', () => {
     expect(snap.talkers.map((t) => t.rate)).toEqual([8000, 16000, 48000]);
     expect(snap.channels.map((c) => c.talker)).toEqual([0, 0, 1, 2]);
     expect(snap.seconds).toBe(1);
+    // Channels at one rate share their input, so they share one signal spectrum.
+    expect(snap.channels[1].meter.signalSpectrum).toEqual(snap.channels[0].meter.signalSpectrum);
   });
 
   it('reports silence as "no speech" and no figure, never NaN or -Infinity', () => {

@@ -265,6 +265,53 @@ describe('channel path: quantizer SNR and alignment', () => {
   });
 });
 
+describe('channel path: what reaches the 8 kHz channel from above its band', () => {
+  // Why the stopband starts at 4600 Hz (core/channel/rate-plan.ts): after decimation to
+  // 8 kHz a component at f in 4000-4600 Hz lands at 8000 - f, in 3400-4000 Hz, outside
+  // the 300-3400 Hz band issue 3 constrains (aliasing folds about 4000 Hz: sampling
+  // theorem, common practice, no source); from 4600 Hz up the path stops it >= 60 dB.
+  const run = (hz: number) => {
+    const path = new ChannelPath({ inputRate: 48000, channels: ['uniform:16'], maxBlock: 480 });
+    const x = new Float64Array(48000 + 960);
+    fillSine(x, 0.5, hz, 48000, 0.2);
+    const ref = runInBlocks(path, x, [480]).ref[0];
+    // 8000 samples after the filters settle: a whole number of cycles of any whole-Hz tone.
+    return { ref: ref.subarray(100, 8100), inputPower: 0.5 ** 2 / 2 };
+  };
+  const power = (y: ArrayLike<number>) => {
+    let p = 0;
+    for (let i = 0; i < y.length; i++) p += y[i] * y[i];
+    return p / y.length;
+  };
+
+  it('a 5000 Hz tone reaches the Reference >= 60 dB down (issue 3: stopband >= 60 dB)', () => {
+    const { ref, inputPower } = run(5000);
+    expect(10 * Math.log10(power(ref) / inputPower)).toBeLessThan(-60);
+  });
+
+  it('a 4300 Hz tone lands at 3700 Hz and nowhere else (what is left is >= 60 dB down)', () => {
+    const { ref, inputPower } = run(4300);
+    // Least-squares fit of a 3700 Hz sinusoid at 8 kHz (whole cycles, so a projection).
+    let c = 0;
+    let sn = 0;
+    for (let i = 0; i < ref.length; i++) {
+      c += ref[i] * Math.cos((2 * Math.PI * 3700 * i) / 8000);
+      sn += ref[i] * Math.sin((2 * Math.PI * 3700 * i) / 8000);
+    }
+    c *= 2 / ref.length;
+    sn *= 2 / ref.length;
+    const rest = Float64Array.from(
+      ref,
+      (v, i) =>
+        v - c * Math.cos((2 * Math.PI * 3700 * i) / 8000) - sn * Math.sin((2 * Math.PI * 3700 * i) / 8000),
+    );
+    // Found there, in the half-band's transition (about -20 dB at 4300 Hz) ...
+    expect(10 * Math.log10((c * c + sn * sn) / 2 / inputPower)).toBeGreaterThan(-30);
+    // ... and nothing of it within 300-3400 Hz or elsewhere.
+    expect(10 * Math.log10(power(rest) / inputPower)).toBeLessThan(-60);
+  });
+});
+
 describe('channel path: rates, stages, gain, buffers', () => {
   it('input already at the channel rate goes to the quantizer untouched, with no latency (issue 3)', () => {
     const path = new ChannelPath({

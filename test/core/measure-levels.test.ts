@@ -1,7 +1,8 @@
 // Level spread, per-code occupancy and the sample meters, against closed forms and
 // independent counts.
-import { describe, expect, it } from 'vitest';
 import { alaw, mulaw } from 'alawmulaw';
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
 import { ChannelMeter } from '../../core/measure/channel-meter';
 import {
   CodeOccupancy,
@@ -212,6 +213,67 @@ describe('signal meter', () => {
     open.add(Float64Array.of(0, 32767 / 32768, 32767 / 32768));
     expect(open.snapshot().clippedRuns).toBe(1);
     expect(open.snapshot().longestClippedRun).toBe(2);
+  });
+
+  it('any signal cut into any blocks: peak, extremes, overloads and clipped runs as counted directly', () => {
+    // Source: the definitions in core/measure/meters.ts, counted by a plain loop over the whole
+    // signal (common practice, no source). Quiet noise with bursts at and over the clip level,
+    // fed in random blocks, so runs open and close across blocks and momentary intervals.
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 1 << 30 }),
+        fc.integer({ min: 1, max: 4 }),
+        fc.array(fc.integer({ min: 1, max: 700 }), { minLength: 1, maxLength: 12 }),
+        (seed, minClipRun, blocks) => {
+          const rng = new Xoshiro128(seed);
+          const x = new Float64Array(3000);
+          fillGaussian(rng, x, 0.05);
+          for (let b = 0; b < 12; b++) {
+            const at = Math.floor(rng.nextFloat() * x.length);
+            const len = 1 + Math.floor(rng.nextFloat() * 6);
+            const v = rng.nextFloat() < 0.5 ? 1 : 1.2;
+            for (let i = at; i < Math.min(x.length, at + len); i++) x[i] = rng.nextFloat() < 0.5 ? v : -v;
+          }
+          const m = new SignalMeter({ rate: RATE, minClipRun, intervalSeconds: 0.0125 });
+          let at = 0;
+          for (let k = 0; at < x.length; k++) {
+            const end = Math.min(x.length, at + blocks[k % blocks.length]);
+            m.add(x, at, end);
+            at = end;
+          }
+          let peak = 0;
+          let max = -Infinity;
+          let min = Infinity;
+          let overloads = 0;
+          let runs = 0;
+          let longest = 0;
+          let run = 0;
+          for (let i = 0; i <= x.length; i++) {
+            const a = i < x.length ? Math.abs(x[i]) : 0;
+            if (i < x.length) {
+              peak = Math.max(peak, a);
+              max = Math.max(max, x[i]);
+              min = Math.min(min, x[i]);
+              if (a > 1) overloads++;
+            }
+            if (a >= 1) run++;
+            else {
+              if (run >= minClipRun) runs++;
+              longest = Math.max(longest, run);
+              run = 0;
+            }
+          }
+          const s = m.snapshot();
+          expect(s.peak).toBe(peak);
+          expect(s.maxSample).toBe(max);
+          expect(s.minSample).toBe(min);
+          expect(s.overloadCount).toBe(overloads);
+          expect(s.clippedRuns).toBe(runs);
+          expect(s.longestClippedRun).toBe(longest);
+        },
+      ),
+      { numRuns: 200 },
+    );
   });
 
   it('silence: levels are null, not -Infinity', () => {
