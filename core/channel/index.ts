@@ -33,3 +33,4 @@ export {
   type Interpolator,
 } from './polyphase';
 export { DelayLine } from './delay-line';
+export { RationalResampler, planInputRate, rationalFactors, type InputRatePlan } from './rational';
