@@ -1,6 +1,7 @@
 // The measurement engine's accumulators and snapshots (issue 3), one import for callers.
 export * from './active-level';
 export * from './channel-meter';
+export * from './howl';
 export * from './levels';
 export * from './meters';
 export * from './segmental';
