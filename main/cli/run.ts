@@ -1,83 +1,96 @@
 // The command line's logic, apart from process I/O so the tests can drive it.
 // Every figure comes from core, the same functions the page and the worklet call.
-import { CHANNEL_PRESETS, CHANNEL_SYNTAX, channelFigures, type ChannelFigures } from '../../core/spec/index';
+import { channelFigures } from '../../core/spec/index';
+import { optionHelp, parseArgs, UsageError } from './args';
+import { analyzeCommand } from './commands/analyze';
+import { channelCommand, presetsCommand } from './commands/channel';
+import { compareCommand } from './commands/compare';
+import { decodeCommand, encodeCommand } from './commands/encode';
+import { designCommand } from './commands/design';
+import { sweepCommand } from './commands/sweep';
+import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, type CliEnv, type CliIo, type Command } from './context';
 
 export { channelFigures };
+export { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, type CliEnv, type CliIo };
 
-export interface CliIo {
-  out(line: string): void;
-  err(line: string): void;
-}
-
-export const EXIT_OK = 0;
-export const EXIT_FAILURE = 1;
-export const EXIT_USAGE = 2;
-
-const USAGE = [
-  'Usage: quantiscope COMMAND [OPTIONS]',
-  '',
-  'Commands:',
-  '  channel TEXT...   describe channels given in the text form (--json for one JSON array)',
-  '  presets           list the channel presets',
-  '  --help            this text',
-  '  --version         the version',
-  '',
-  `Channel text form: ${CHANNEL_SYNTAX}`,
+export const COMMANDS: readonly Command[] = [
+  analyzeCommand,
+  compareCommand,
+  encodeCommand,
+  decodeCommand,
+  sweepCommand,
+  designCommand,
+  channelCommand,
+  presetsCommand,
 ];
 
-function describe(f: ChannelFigures): string[] {
-  const signed = (n: number) => (n >= 0 ? '+' : '') + n.toFixed(2);
+function usage(): string[] {
+  const width = Math.max(...COMMANDS.map((c) => c.name.length));
   return [
-    f.canonical,
-    `  stages          ${f.stages.join(' > ')}`,
-    `  bits            ${f.bits}`,
-    `  rate            ${f.rateHz === null ? 'native' : `${f.rateHz} Hz`}`,
-    `  bit rate        ${f.bitRate === null ? 'depends on the input rate' : `${f.bitRate / 1000} kbit/s`}`,
-    `  overload point  ${f.overloadPoint.toFixed(5)} (${f.overloadPcm16.toFixed(0)} in 16-bit PCM)`,
-    `  load capacity   ${signed(f.loadCapacityDbm0)} dBm0`,
-    `  segments        ${f.segmentCount}`,
+    'Usage: quantiscope COMMAND [OPTIONS]',
+    '',
+    'Commands:',
+    ...COMMANDS.map((c) => `  ${c.name.padEnd(width)}  ${c.summary}`),
+    '',
+    '  --help, -h     this text; `quantiscope COMMAND --help` for a command',
+    '  --version      the version',
   ];
 }
 
-export function runCli(argv: readonly string[], io: CliIo, version: string): number {
-  const [command, ...rest] = argv;
-  if (command === undefined || command === '--help' || command === '-h' || command === 'help') {
-    USAGE.forEach((l) => io.out(l));
-    return command === undefined ? EXIT_USAGE : EXIT_OK;
+export function commandHelp(c: Command): string[] {
+  return [
+    `Usage: quantiscope ${c.name}${c.synopsis === '' ? '' : ` ${c.synopsis}`}`,
+    '',
+    `${c.summary[0].toUpperCase()}${c.summary.slice(1)}.`,
+    ...(c.description.length > 0 ? ['', ...c.description] : []),
+    '',
+    'Options:',
+    ...optionHelp(c.options),
+  ];
+}
+
+/** Runs one command line; resolves to the exit status (never rejects). */
+export async function runCli(
+  argv: readonly string[],
+  io: CliIo,
+  version: string,
+  env: CliEnv = {},
+): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === '--help' || name === '-h') {
+    usage().forEach((l) => io.out(l));
+    return name === undefined ? EXIT_USAGE : EXIT_OK;
   }
-  if (command === '--version') {
+  if (name === '--version') {
     io.out(version);
     return EXIT_OK;
   }
-  if (command === 'presets') {
-    for (const p of CHANNEL_PRESETS) io.out(`${p.text.padEnd(24)} ${p.title}`);
-    return EXIT_OK;
+  if (name === 'help') {
+    const c = COMMANDS.find((k) => k.name === rest[0]);
+    (c === undefined ? usage() : commandHelp(c)).forEach((l) => io.out(l));
+    return c === undefined && rest.length > 0 ? EXIT_USAGE : EXIT_OK;
   }
-  if (command === 'channel') {
-    const json = rest.includes('--json');
-    const texts = rest.filter((a) => a !== '--json');
-    const unknown = texts.find((t) => t.startsWith('--'));
-    if (unknown) {
-      io.err(`quantiscope channel: unknown option ${unknown}`);
+  const command = COMMANDS.find((c) => c.name === name);
+  if (command === undefined) {
+    io.err(`quantiscope: unknown command ${JSON.stringify(name)} (try --help)`);
+    return EXIT_USAGE;
+  }
+  const ctx = { io, version, cores: Math.max(1, env.cores ?? 1), workerScript: env.workerScript ?? null };
+  try {
+    const args = parseArgs(rest, command.options);
+    if (args.flags.has('help')) {
+      commandHelp(command).forEach((l) => io.out(l));
+      return EXIT_OK;
+    }
+    return await command.run(args, ctx);
+  } catch (err) {
+    if (err instanceof UsageError) {
+      io.err(`quantiscope ${name}: ${err.message} (try quantiscope ${name} --help)`);
       return EXIT_USAGE;
     }
-    if (texts.length === 0) {
-      io.err('quantiscope channel: give at least one channel, for example: quantiscope channel g711-mu');
-      return EXIT_USAGE;
-    }
-    const figures: ChannelFigures[] = [];
-    for (const text of texts) {
-      try {
-        figures.push(channelFigures(text));
-      } catch (err) {
-        io.err(`quantiscope channel: ${err instanceof Error ? err.message : String(err)}`);
-        return EXIT_FAILURE;
-      }
-    }
-    if (json) io.out(JSON.stringify(figures));
-    else figures.forEach((f) => describe(f).forEach((l) => io.out(l)));
-    return EXIT_OK;
+    // Anything else is reported as a sentence: a stack trace helps no one running a batch.
+    // File errors carry the file's name in their message.
+    io.err(`quantiscope ${name}: ${err instanceof Error ? err.message : String(err)}`);
+    return EXIT_FAILURE;
   }
-  io.err(`quantiscope: unknown command ${JSON.stringify(command)} (try --help)`);
-  return EXIT_USAGE;
 }

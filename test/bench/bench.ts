@@ -12,6 +12,7 @@ import {
 import './figures-channel';
 import './figures-measure';
 import './figures-analysis';
+import './figures-cli';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 

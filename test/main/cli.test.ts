@@ -2,10 +2,10 @@
 import { describe, expect, it } from 'vitest';
 import { channelFigures, EXIT_FAILURE, EXIT_OK, EXIT_USAGE, runCli } from '../../main/cli/run';
 
-function run(...argv: string[]) {
+async function run(...argv: string[]) {
   const out: string[] = [];
   const err: string[] = [];
-  const code = runCli(argv, { out: (l) => out.push(l), err: (l) => err.push(l) }, '9.9.9');
+  const code = await runCli(argv, { out: (l) => out.push(l), err: (l) => err.push(l) }, '9.9.9');
   return { code, out, err };
 }
 
@@ -36,11 +36,11 @@ describe('quantiscope channel', () => {
     expect(u.bits).toBe(12);
   });
 
-  it('prints text and JSON', () => {
-    const text = run('channel', 'mu:255:8');
+  it('prints text and JSON', async () => {
+    const text = await run('channel', 'mu:255:8');
     expect(text.code).toBe(EXIT_OK);
     expect(text.out.join('\n')).toMatch(/bit rate\s+64 kbit\/s/);
-    const json = run('channel', '--json', 'g711-a', 'uniform:8');
+    const json = await run('channel', '--json', 'g711-a', 'uniform:8');
     expect(json.code).toBe(EXIT_OK);
     const parsed = JSON.parse(json.out.join('')) as {
       bitRate: number;
@@ -51,19 +51,19 @@ describe('quantiscope channel', () => {
     expect(parsed[0].segmentEdgesDbov[0]).toBeNull();
   });
 
-  it('refuses bad text with a message naming the bad part', () => {
-    const r = run('channel', 'mu:abc:8');
+  it('refuses bad text with a message naming the bad part', async () => {
+    const r = await run('channel', 'mu:abc:8');
     expect(r.code).toBe(EXIT_FAILURE);
     expect(r.err.join('\n')).toContain('abc');
   });
 
-  it('handles usage errors', () => {
-    expect(run().code).toBe(EXIT_USAGE);
-    expect(run('--help').code).toBe(EXIT_OK);
-    expect(run('--version').out).toEqual(['9.9.9']);
-    expect(run('channel').code).toBe(EXIT_USAGE);
-    expect(run('channel', '--bogus', 'g711-mu').code).toBe(EXIT_USAGE);
-    expect(run('frobnicate').code).toBe(EXIT_USAGE);
-    expect(run('presets').out.some((l) => l.startsWith('g711-mu'))).toBe(true);
+  it('handles usage errors', async () => {
+    expect((await run()).code).toBe(EXIT_USAGE);
+    expect((await run('--help')).code).toBe(EXIT_OK);
+    expect((await run('--version')).out).toEqual(['9.9.9']);
+    expect((await run('channel')).code).toBe(EXIT_USAGE);
+    expect((await run('channel', '--bogus', 'g711-mu')).code).toBe(EXIT_USAGE);
+    expect((await run('frobnicate')).code).toBe(EXIT_USAGE);
+    expect((await run('presets')).out.some((l) => l.startsWith('g711-mu'))).toBe(true);
   });
 });

@@ -1,0 +1,122 @@
+// Options and steps several commands share.
+import { ChannelSpecError } from '../../../core/spec/errors';
+import { formatChannel } from '../../../core/spec/format';
+import { parseChannel } from '../../../core/spec/parse';
+import type { ChannelSpec } from '../../../core/spec/types';
+import {
+  choiceOption,
+  numberOption,
+  UsageError,
+  valueOf,
+  valuesOf,
+  type OptionSpec,
+  type ParsedArgs,
+} from '../args';
+import type { AnalyzeTask } from '../analyze-file';
+import type { CliContext } from '../context';
+import type { InputOptions } from '../input';
+import { Progress, TaskProgress } from '../progress';
+import { runTasks, type Settled } from '../workers';
+
+export const HELP_OPTION: OptionSpec = { name: 'help', short: 'h', help: 'this text' };
+
+export const CHANNEL_OPTION: OptionSpec = {
+  name: 'channel',
+  short: 'c',
+  value: 'SPEC',
+  repeat: true,
+  help: 'a channel in the text form (see `quantiscope channel --help`)',
+};
+
+export const TRACK_OPTION: OptionSpec = {
+  name: 'track',
+  value: 'N',
+  help: 'which channel of a multichannel file to read, counted from 1 (default 1)',
+};
+
+export const RAW_OPTION: OptionSpec = {
+  name: 'raw',
+  value: 'mu|a',
+  help: 'input files are headerless G.711 (8000 Hz) of this law',
+};
+
+export const JOBS_OPTION: OptionSpec = {
+  name: 'jobs',
+  short: 'j',
+  value: 'N',
+  help: 'files analysed in parallel (default: the number of cores, at most the number of files)',
+};
+
+/** Parsed channel texts; a bad one is a usage error naming the bad part. */
+export function channelsOf(args: ParsedArgs, fallback: readonly string[]): ChannelSpec[] {
+  const texts = valuesOf(args, 'channel');
+  return (texts.length > 0 ? texts : fallback).map((t) => parseChannelOption(t));
+}
+
+export function parseChannelOption(text: string): ChannelSpec {
+  try {
+    return parseChannel(text);
+  } catch (err) {
+    if (err instanceof ChannelSpecError) throw new UsageError(`--channel ${text}: ${err.message}`);
+    throw err;
+  }
+}
+
+export function canonical(specs: readonly ChannelSpec[]): string[] {
+  return specs.map((s) => formatChannel(s));
+}
+
+export function inputOptionsOf(args: ParsedArgs): InputOptions {
+  const track = valueOf(args, 'track');
+  const raw = valueOf(args, 'raw');
+  return {
+    track: track === undefined ? 0 : numberOption('track', track, { integer: true, min: 1 }) - 1,
+    raw: raw === undefined ? undefined : choiceOption('raw', raw, ['mu', 'a'] as const),
+  };
+}
+
+export function jobsOf(args: ParsedArgs, ctx: CliContext): number {
+  const j = valueOf(args, 'jobs');
+  return j === undefined ? ctx.cores : numberOption('jobs', j, { integer: true, min: 1, max: 256 });
+}
+
+export function needFiles(args: ParsedArgs, what = 'at least one audio file'): string[] {
+  if (args.operands.length === 0) throw new UsageError(`give ${what}`);
+  return args.operands;
+}
+
+/**
+ * Runs the analysis tasks with a progress line, naming each failure on stderr in
+ * file order (as a serial run would, whatever order parallel tasks finish in).
+ */
+export async function analyseAll(
+  command: string,
+  tasks: AnalyzeTask[],
+  jobs: number,
+  ctx: CliContext,
+): Promise<Settled[]> {
+  const progress = new Progress(ctx.io.status, command);
+  const tracker = new TaskProgress(progress, tasks.length);
+  const done: (Settled | undefined)[] = new Array<Settled | undefined>(tasks.length);
+  let reported = 0;
+  try {
+    return await runTasks(tasks, {
+      jobs,
+      workerScript: ctx.workerScript,
+      onProgress: (i, d, total) => tracker.task(i, d, total),
+      onSettled: (i, s) => {
+        tracker.settled(i);
+        done[i] = s;
+        for (let r = done[reported]; r !== undefined; r = done[reported]) {
+          reported++;
+          if (!r.ok) {
+            progress.done();
+            ctx.io.err(`quantiscope ${command}: ${r.file}: ${r.reason}`);
+          }
+        }
+      },
+    });
+  } finally {
+    progress.done();
+  }
+}

@@ -1,0 +1,323 @@
+// quantiscope design FILE... --bits N | --recommend: quantizers for the files' talker.
+//
+// A first pass runs the files through the channel path to the design rate and keeps
+// the level spread (0.5 dB bins of |x|, the Level spread panel's histogram) and the
+// RMS levels of the active 20 ms frames, summed over all files. --bits designs a
+// Lloyd-Max (or Panter-Dite) table for the level spread as a density; its predicted
+// SNR is the exact integral over that density, and a second pass measures it on the
+// files. --recommend ranks the candidate channels by bit rate for the frame levels.
+import { densityFromDbov } from '../../../core/design/level-distribution';
+import { designLloydMax } from '../../../core/design/lloyd-max';
+import { designPanterDite, type DesignedQuantizer } from '../../../core/design/panter-dite';
+import { recommend, type Recommendation } from '../../../core/design/recommend';
+import { ChannelSpecError } from '../../../core/spec/errors';
+import { formatChannel } from '../../../core/spec/format';
+import { parseRate } from '../../../core/spec/parse';
+import type { ChannelSpec } from '../../../core/spec/types';
+import { PCM16_SCALE } from '../../../core/units/levels';
+import { choiceOption, numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
+import type { AnalyzeOutcome, AnalyzeTask, LevelsResult } from '../analyze-file';
+import { EXIT_FAILURE, EXIT_OK, type CliContext, type Command } from '../context';
+import { fixed, percent, signed, table } from '../format';
+import type { Settled } from '../workers';
+import {
+  analyseAll,
+  HELP_OPTION,
+  inputOptionsOf,
+  JOBS_OPTION,
+  jobsOf,
+  needFiles,
+  RAW_OPTION,
+  TRACK_OPTION,
+} from './common';
+
+/** Levels of all files together: histograms and frame weights add. */
+export function mergeLevels(all: readonly LevelsResult[]): LevelsResult {
+  const first = all[0];
+  const counts = new Array<number>(first.counts.length).fill(0);
+  const frames = new Map<number, number>();
+  let underflow = 0;
+  let overload = 0;
+  for (const l of all) {
+    l.counts.forEach((c, k) => (counts[k] += c));
+    underflow += l.underflow;
+    overload += l.overload;
+    l.frameLevelsDbov.forEach((db, k) => frames.set(db, (frames.get(db) ?? 0) + l.frameWeights[k]));
+  }
+  const levels = [...frames.keys()].sort((a, b) => a - b);
+  return {
+    ...first,
+    counts,
+    underflow,
+    overload,
+    frameLevelsDbov: levels,
+    frameWeights: levels.map((db) => frames.get(db) ?? 0),
+  };
+}
+
+export interface DesignReport {
+  files: string[];
+  rateHz: number;
+  method: 'lloyd-max' | 'panter-dite';
+  bits: number;
+  channel: string;
+  /** Positive half: decision values t_1 .. t_{M-1} and outputs y_1 .. y_M (float scale). */
+  decisions: number[];
+  outputs: number[];
+  predictedSnrDb: number;
+  measuredSnrDb: number | null;
+  measuredSegSnrDb: number | null;
+  iterations: number;
+  converged: boolean;
+}
+
+function combined(settled: readonly Settled[]): { snrDb: number | null; segSnrDb: number | null } {
+  let s = 0;
+  let e = 0;
+  let frames = 0;
+  let segSum = 0;
+  for (const r of settled) {
+    if (!r.ok) continue;
+    const c = r.value.sums[0];
+    s += c.signalEnergy;
+    e += c.errorEnergy;
+    if (c.segSnrMeanDb !== null) {
+      frames += c.measuredFrames;
+      segSum += c.segSnrMeanDb * c.measuredFrames;
+    }
+  }
+  return {
+    snrDb: s > 0 && e > 0 ? 10 * Math.log10(s / e) : null,
+    segSnrDb: frames > 0 ? segSum / frames : null,
+  };
+}
+
+export function designTable(d: DesignReport): string[] {
+  const m = d.outputs.length;
+  const rows = [['  level', 'decision from', '(16-bit)', 'output', '(16-bit)']];
+  for (let i = 0; i < m; i++) {
+    const from = i === 0 ? 0 : d.decisions[i - 1];
+    rows.push([
+      `  ${i + 1}`,
+      from.toPrecision(6),
+      (from * PCM16_SCALE).toFixed(1),
+      d.outputs[i].toPrecision(6),
+      (d.outputs[i] * PCM16_SCALE).toFixed(1),
+    ]);
+  }
+  return [
+    `${d.method} quantizer, ${d.bits} bits (${2 * m} levels, odd-symmetric; positive half below) at ${d.rateHz} Hz,`,
+    `designed for the level spread of ${d.files.length} file(s)${d.converged ? '' : ` (stopped after ${d.iterations} steps)`}`,
+    ...table(rows),
+    `  predicted SNR ${fixed(d.predictedSnrDb, 2)} dB (the table integrated over the files' level density)`,
+    `  measured SNR  ${fixed(d.measuredSnrDb, 2)} dB on the files (segmental ${fixed(d.measuredSegSnrDb, 2)} dB)`,
+    `  channel text: ${d.channel}`,
+  ];
+}
+
+export function recommendTable(r: Recommendation): string[] {
+  const rows = [['   ', 'channel', 'family', 'bits', 'kbit/s', 'share %', 'SNR at share', 'margin', '']];
+  r.candidates.forEach((c, i) => {
+    rows.push([
+      i === r.chosen ? '  >' : '   ',
+      c.id,
+      c.family,
+      String(c.bits),
+      String(c.bitRate / 1000),
+      percent(c.predictedShare, 2),
+      fixed(c.snrAtShareDb, 2),
+      signed(c.snrMarginDb, 2),
+      c.meets ? 'meets' : '',
+    ]);
+  });
+  const chosen = r.chosen < 0 ? null : r.candidates[r.chosen];
+  return [
+    `Candidates for ${r.frames} active frames (${r.frameShape} frames at ${r.rateHz} Hz), cheapest first:`,
+    `target ${fixed(r.targetSnrDb, 1)} dB in ${percent(r.share, 2)} % of the frames`,
+    ...table(rows, ['left', 'left', 'left', 'right', 'right', 'right', 'right', 'right', 'left']),
+    chosen === null
+      ? '  no candidate meets the target'
+      : `  cheapest that meets it: ${chosen.id} at ${chosen.bitRate / 1000} kbit/s`,
+  ];
+}
+
+function designFor(
+  levels: LevelsResult,
+  bits: number,
+  method: 'lloyd-max' | 'panter-dite',
+): DesignedQuantizer {
+  const density = densityFromDbov(
+    {
+      loDbov: levels.loDbov,
+      binDb: levels.binDb,
+      counts: levels.counts,
+      belowCount: levels.underflow,
+      overloadCount: levels.overload,
+    },
+    levels.overloadPoint,
+    'files',
+  );
+  const name = `files-${method === 'lloyd-max' ? 'lm' : 'pd'}-${bits}`;
+  return method === 'lloyd-max'
+    ? designLloydMax(density, bits, { name })
+    : designPanterDite(density, bits, name);
+}
+
+function successes(settled: readonly Settled[]): AnalyzeOutcome[] {
+  return settled.flatMap((s) => (s.ok ? [s.value] : []));
+}
+
+async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
+  const files = needFiles(args);
+  const bitsText = valueOf(args, 'bits');
+  const wantRecommend = args.flags.has('recommend');
+  if (bitsText === undefined && !wantRecommend) throw new UsageError('give --bits N, --recommend, or both');
+  const bits =
+    bitsText === undefined ? null : numberOption('bits', bitsText, { integer: true, min: 1, max: 12 });
+  const method = choiceOption('method', valueOf(args, 'method') ?? 'lloyd-max', [
+    'lloyd-max',
+    'panter-dite',
+  ] as const);
+  let rate: number;
+  try {
+    const r = parseRate(valueOf(args, 'rate') ?? '8k');
+    if (r === 'native') throw new UsageError('--rate needs a rate in Hz (8k, 16k, ...), not native');
+    rate = r;
+  } catch (err) {
+    if (err instanceof ChannelSpecError) throw new UsageError(`--rate: ${err.message}`);
+    throw err;
+  }
+  const target = valueOf(args, 'target-snr');
+  const share = valueOf(args, 'share');
+  if (!wantRecommend && (target !== undefined || share !== undefined))
+    throw new UsageError('--target-snr and --share go with --recommend');
+  const targetSnrDb = target === undefined ? 30 : numberOption('target-snr', target, { min: -20, max: 150 });
+  const shareValue = share === undefined ? 0.99 : numberOption('share', share, { min: 1e-6, max: 1 });
+  const shape = choiceOption('shape', valueOf(args, 'shape') ?? 'laplacian', [
+    'laplacian',
+    'gaussian',
+  ] as const);
+  const alignText = valueOf(args, 'align');
+  const alignDbov = alignText === undefined ? null : numberOption('align', alignText, { min: -100, max: 0 });
+  const json = args.flags.has('json');
+  const input = inputOptionsOf(args);
+  const jobs = jobsOf(args, ctx);
+
+  // 16-bit linear PCM at the design rate: a transparent meter of the talker.
+  const probe = formatChannel({ stages: [{ law: 'uniform', bits: 16, form: 'tread' }], rate });
+  const task = (file: string, channel: string, collectLevels: boolean): AnalyzeTask => ({
+    file,
+    channels: [channel],
+    alignDbov,
+    collectLevels,
+    ...input,
+  });
+  const first = await analyseAll(
+    'design',
+    files.map((f) => task(f, probe, true)),
+    jobs,
+    ctx,
+  );
+  const good = successes(first);
+  let failed = first.length - good.length;
+  if (good.length === 0) {
+    ctx.io.err('quantiscope design: no file could be read, so there is nothing to design for');
+    return EXIT_FAILURE;
+  }
+  const levels = mergeLevels(good.map((o) => o.levels as LevelsResult));
+  const okFiles = good.map((o) => o.result.file);
+  const out: { design?: DesignReport; recommendation?: Recommendation } = {};
+
+  if (bits !== null) {
+    const d = designFor(levels, bits, method);
+    const spec: ChannelSpec = { stages: [d.stage], rate };
+    const channel = formatChannel(spec);
+    const second = await analyseAll(
+      'design',
+      okFiles.map((f) => task(f, channel, false)),
+      jobs,
+      ctx,
+    );
+    failed += second.length - successes(second).length;
+    const measured = combined(second);
+    const half = d.stage.outputs.length / 2;
+    out.design = {
+      files: okFiles,
+      rateHz: rate,
+      method,
+      bits,
+      channel,
+      decisions: d.stage.decisions.slice(half),
+      outputs: d.stage.outputs.slice(half),
+      predictedSnrDb: d.snrDb,
+      measuredSnrDb: measured.snrDb,
+      measuredSegSnrDb: measured.segSnrDb,
+      iterations: d.iterations,
+      converged: d.converged,
+    };
+  }
+  if (wantRecommend) {
+    if (levels.frameLevelsDbov.length === 0) {
+      ctx.io.err('quantiscope design: the files hold no active frames to recommend for');
+      return EXIT_FAILURE;
+    }
+    out.recommendation = recommend(
+      {
+        levelsDbov: levels.frameLevelsDbov,
+        weights: levels.frameWeights,
+        overloadPoint: levels.overloadPoint,
+      },
+      { targetSnrDb, share: shareValue, frameShape: shape, rateHz: rate },
+    );
+  }
+  if (json) ctx.io.out(JSON.stringify(out, null, 2));
+  else {
+    if (out.design !== undefined) designTable(out.design).forEach((l) => ctx.io.out(l));
+    if (out.design !== undefined && out.recommendation !== undefined) ctx.io.out('');
+    if (out.recommendation !== undefined) recommendTable(out.recommendation).forEach((l) => ctx.io.out(l));
+  }
+  if (failed > 0) {
+    ctx.io.err(`quantiscope design: ${failed} file run(s) failed; the figures above leave them out`);
+    return EXIT_FAILURE;
+  }
+  return EXIT_OK;
+}
+
+export const designCommand: Command = {
+  name: 'design',
+  summary: "design a quantizer for the files' talker, or recommend a channel",
+  synopsis: 'FILE... (--bits N | --recommend [--target-snr DB] [--share S])',
+  description: [
+    'Runs the files through the channel path to the design rate (default 8000 Hz) and gathers their level',
+    'spread and the levels of their active 20 ms frames (at or above the P.56 threshold).',
+    '--bits N designs an N-bit odd-symmetric quantizer for the level spread (Lloyd-Max, or Panter-Dite with',
+    '--method panter-dite) and prints its table, its predicted SNR (exact for the measured density) and the',
+    'SNR measured running the files through it; the channel text it prints goes to --channel elsewhere.',
+    '--recommend ranks uniform, mu-law, A-law, G.711 and designed candidates by bit rate for a target SNR',
+    'met by a share of the active frames (default 30 dB in 99 %) and marks the cheapest that meets it.',
+  ],
+  options: [
+    { name: 'bits', value: 'N', help: 'design an N-bit quantizer (1 to 12)' },
+    { name: 'method', value: 'lloyd-max|panter-dite', help: 'design method (default lloyd-max)' },
+    { name: 'recommend', help: 'rank candidate channels by bit rate' },
+    { name: 'target-snr', value: 'DB', help: 'SNR the frames must reach (default 30)' },
+    { name: 'share', value: 'S', help: 'share of active frames that must reach it, 0..1 (default 0.99)' },
+    {
+      name: 'shape',
+      value: 'laplacian|gaussian',
+      help: 'amplitude density of a frame for the recommender (default laplacian)',
+    },
+    { name: 'rate', value: 'RATE', help: 'channel rate of the design (default 8k)' },
+    {
+      name: 'align',
+      value: 'DBOV',
+      help: 'bring each file to this active level first, as analyze --align does',
+    },
+    { name: 'json', help: 'print JSON: {design, recommendation}' },
+    JOBS_OPTION,
+    TRACK_OPTION,
+    RAW_OPTION,
+    HELP_OPTION,
+  ],
+  run,
+};
