@@ -66,7 +66,8 @@ function lockDown(contents: WebContents): void {
 /** Every IPC handler goes through here: known channel, our own page, a valid payload. */
 function handleChecked(channel: IpcChannel, handler: () => unknown): void {
   ipcMain.handle(channel, (event, ...args: unknown[]) => {
-    const checked = checkCall(channel, event.senderFrame?.url, args);
+    const frame = event.senderFrame;
+    const checked = checkCall(channel, frame?.url, args, frame !== null && frame.parent === null);
     if (!checked.ok) throw new Error(checked.error);
     return handler();
   });

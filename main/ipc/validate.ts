@@ -22,10 +22,11 @@ export function isIpcChannel(name: unknown): name is IpcChannel {
 }
 
 /** Only our own top frame may call the shell. */
-export function checkSender(senderUrl: string | undefined): Checked<void> {
+export function checkSender(senderUrl: string | undefined, isTopFrame = true): Checked<void> {
   if (!senderUrl || !isAppUrl(senderUrl)) {
     return { ok: false, error: `sender ${JSON.stringify(senderUrl ?? '')} is not the app page` };
   }
+  if (!isTopFrame) return { ok: false, error: 'sender is a subframe, not the app page itself' };
   return { ok: true, value: undefined };
 }
 
@@ -41,9 +42,10 @@ export function checkCall(
   channel: string,
   senderUrl: string | undefined,
   args: readonly unknown[],
+  isTopFrame = true,
 ): Checked<void> {
   if (!isIpcChannel(channel)) return { ok: false, error: `unknown channel ${JSON.stringify(channel)}` };
-  const sender = checkSender(senderUrl);
+  const sender = checkSender(senderUrl, isTopFrame);
   if (!sender.ok) return sender;
   const payload = checkPayload(channel, args);
   return payload.ok ? { ok: true, value: undefined } : { ok: false, error: `${channel}: ${payload.error}` };

@@ -28,12 +28,12 @@ export interface PermissionAsk {
   mediaTypes?: readonly string[];
 }
 
-/** Microphone only: 'media' from our origin, and no video among the requested types. */
+/** Microphone only: 'media' from our origin, asking for audio and nothing else (unsaid kinds are refused). */
 export function isPermissionGranted(ask: PermissionAsk): boolean {
   if (ask.permission !== 'media') return false;
   if (!isAppUrl(ask.requestingUrl)) return false;
-  if (ask.mediaTypes && ask.mediaTypes.some((t) => t !== 'audio')) return false;
-  return true;
+  const kinds = ask.mediaTypes;
+  return kinds !== undefined && kinds.length > 0 && kinds.every((t) => t === 'audio');
 }
 
 /** Page navigation away from the loaded page is never allowed; nor are new windows. */

@@ -1,3 +1,7 @@
+// Sources: ITU-T G.711 (8000 samples/s, 8-bit codes: 64 kbit/s, from memory); ITU-T P.56 (the
+// active level follows a gain change dB for dB, from memory). The rest checks our own wiring
+// conventions (DEVELOPERS.md, "The measurement engine"): where each figure is taken, and that
+// block size never changes a figure.
 import { describe, expect, it } from 'vitest';
 import { Analyzer, analyzeSamples } from '../../core/analysis/index';
 import { ChannelPath } from '../../core/channel/path';

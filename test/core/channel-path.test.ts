@@ -1,3 +1,9 @@
+// Sources: the thresholds (ripple, stopband, SNR, alignment) are this project's requirements
+// (issue 3), held against measurements made independently of the code under test: the frequency
+// response as the DFT of the taps and the output as a direct-form convolution (the definitions of
+// an FIR filter, Oppenheim and Schafer, Discrete-Time Signal Processing, from memory), and the
+// polyphase identities of Crochiere and Rabiner, Multirate Digital Signal Processing (1983, from
+// memory). 1020 Hz is the reference test frequency of ITU-T O.6 / G.712 (from memory).
 import { describe, expect, it } from 'vitest';
 import { ChannelPath } from '../../core/channel/path';
 import { createQuantizer } from '../../core/quantizers/index';

@@ -1,5 +1,5 @@
 // The Electron shell's security decisions, checked in Node without Electron.
-// Sources: Electron's security checklist (electronjs.org "Security" tutorial: context
+// Sources: Electron's security checklist (electronjs.org "Security" documentation: context
 // isolation, sandbox, permission handlers, navigation and new-window limits, IPC sender
 // validation; from memory) and the CSP Level 3 / HTML standards where named.
 import { readFileSync } from 'node:fs';
@@ -74,7 +74,9 @@ describe('permissions', () => {
     expect(isPermissionGranted({ permission: 'media', requestingUrl: page, mediaTypes: ['audio'] })).toBe(
       true,
     );
-    expect(isPermissionGranted({ permission: 'media', requestingUrl: `${APP_ORIGIN}/` })).toBe(true);
+    expect(
+      isPermissionGranted({ permission: 'media', requestingUrl: `${APP_ORIGIN}/`, mediaTypes: ['audio'] }),
+    ).toBe(true);
   });
 
   it.each([
@@ -85,6 +87,8 @@ describe('permissions', () => {
     ['media', 'not a url', ['audio']],
     ['media', page, ['video']],
     ['media', page, ['audio', 'video']],
+    ['media', page, undefined],
+    ['media', page, []],
     ['notifications', page, undefined],
     ['geolocation', page, undefined],
     ['clipboard-read', page, undefined],
@@ -132,5 +136,9 @@ describe('IPC validation', () => {
     const extra = checkCall(IPC_CHANNELS.appInfo, page, [{ path: '/etc/passwd' }]);
     expect(extra).toMatchObject({ ok: false, error: expect.stringContaining('takes no arguments') });
     expect(checkSender(page).ok).toBe(true);
+    expect(checkCall(IPC_CHANNELS.appInfo, page, [], false)).toMatchObject({
+      ok: false,
+      error: expect.stringContaining('subframe'),
+    });
   });
 });
