@@ -12,6 +12,29 @@ export interface SnrMeasurement {
   snrDb: number;
 }
 
+/** Scratch for sumEnergies' two sums, so neither caller allocates per block. */
+const SUMS = new Float64Array(2);
+
+/** Sums of input^2 and of (output - input)^2 over [start, end), into sums[0] and sums[1]. */
+function sumEnergies(
+  input: ArrayLike<number>,
+  output: ArrayLike<number>,
+  start: number,
+  end: number,
+  sums: Float64Array,
+): void {
+  let s = 0;
+  let e = 0;
+  for (let i = start; i < end; i++) {
+    const x = input[i];
+    const d = output[i] - x;
+    s += x * x;
+    e += d * d;
+  }
+  sums[0] = s;
+  sums[1] = e;
+}
+
 /**
  * SNR of output against input over samples [start, end). Writes into `out` when
  * given, so a caller measuring block after block allocates nothing.
@@ -26,14 +49,9 @@ export function measureSnr(
   if (start < 0 || end > input.length || end > output.length || start > end) {
     throw new RangeError(`measureSnr: range [${start}, ${end}) does not fit the blocks`);
   }
-  let s = 0;
-  let e = 0;
-  for (let i = start; i < end; i++) {
-    const x = input[i];
-    const d = output[i] - x;
-    s += x * x;
-    e += d * d;
-  }
+  sumEnergies(input, output, start, end, SUMS);
+  const s = SUMS[0];
+  const e = SUMS[1];
   const n = end - start;
   const r = out ?? { count: 0, signalPower: 0, noisePower: 0, snrDb: 0 };
   r.count = n;
@@ -83,14 +101,9 @@ export class SnrAccumulator {
   ): void {
     if (this.batches >= this.maxBatches)
       throw new RangeError(`SnrAccumulator: more than ${this.maxBatches} batches`);
-    let s = 0;
-    let e = 0;
-    for (let i = start; i < end; i++) {
-      const x = input[i];
-      const d = output[i] - x;
-      s += x * x;
-      e += d * d;
-    }
+    sumEnergies(input, output, start, end, SUMS);
+    const s = SUMS[0];
+    const e = SUMS[1];
     this.signalSums[this.batches] = s;
     this.noiseSums[this.batches] = e;
     this.batches++;

@@ -232,58 +232,38 @@ describe('planInputRate', () => {
   // every channel rate divides the file's; otherwise it is converted, to 48 kHz when
   // the channel rates divide that. Expected factors are the gcd arithmetic of the
   // rates (common practice, no source).
-  const rates = [8000, 11025, 16000, 22050, 32000, 44100, 48000, 88200, 96000, 176400, 192000];
+  // One row per file rate; the columns are the plans for channels at 8 kHz, at 8 and 16 kHz,
+  // at 8 and 48 kHz, and at 44.1 kHz.
+  const PLANS: [number, string, string, string, string][] = [
+    [8000, 'direct', '48000:6/1', '48000:6/1', '44100:441/80'],
+    [11025, '48000:640/147', '48000:640/147', '48000:640/147', '44100:4/1'],
+    [16000, 'direct', 'direct', '48000:3/1', '44100:441/160'],
+    [22050, '48000:320/147', '48000:320/147', '48000:320/147', '44100:2/1'],
+    [32000, 'direct', 'direct', '48000:3/2', '44100:441/320'],
+    [44100, '48000:160/147', '48000:160/147', '48000:160/147', 'direct'],
+    [48000, 'direct', 'direct', 'direct', '44100:147/160'],
+    [88200, '48000:80/147', '48000:80/147', '48000:80/147', 'direct'],
+    [96000, 'direct', 'direct', 'direct', '44100:147/320'],
+    [176400, '48000:40/147', '48000:40/147', '48000:40/147', 'direct'],
+    [192000, 'direct', 'direct', 'direct', '44100:147/640'],
+  ];
+  const rates = PLANS.map((row) => row[0]);
+  const column = (k: 1 | 2 | 3 | 4): string[] => PLANS.map((row) => row[k]);
   const plan = (file: number, channels: (number | 'native')[]): string => {
     const p = planInputRate(file, channels);
     return p.direct ? 'direct' : `${p.pathRateHz}:${p.up}/${p.down}`;
   };
 
   it('for 8 kHz channels', () => {
-    expect(rates.map((f) => plan(f, [8000]))).toEqual([
-      'direct',
-      '48000:640/147',
-      'direct',
-      '48000:320/147',
-      'direct',
-      '48000:160/147',
-      'direct',
-      '48000:80/147',
-      'direct',
-      '48000:40/147',
-      'direct',
-    ]);
+    expect(rates.map((f) => plan(f, [8000]))).toEqual(column(1));
   });
 
   it('for 8 kHz and 16 kHz channels together', () => {
-    expect(rates.map((f) => plan(f, [8000, 16000, 8000]))).toEqual([
-      '48000:6/1',
-      '48000:640/147',
-      'direct',
-      '48000:320/147',
-      'direct',
-      '48000:160/147',
-      'direct',
-      '48000:80/147',
-      'direct',
-      '48000:40/147',
-      'direct',
-    ]);
+    expect(rates.map((f) => plan(f, [8000, 16000, 8000]))).toEqual(column(2));
   });
 
   it('with a 48 kHz channel, and with native channels only', () => {
-    expect(rates.map((f) => plan(f, [8000, 48000]))).toEqual([
-      '48000:6/1',
-      '48000:640/147',
-      '48000:3/1',
-      '48000:320/147',
-      '48000:3/2',
-      '48000:160/147',
-      'direct',
-      '48000:80/147',
-      'direct',
-      '48000:40/147',
-      'direct',
-    ]);
+    expect(rates.map((f) => plan(f, [8000, 48000]))).toEqual(column(3));
     // native runs the quantizer at whatever rate the file has.
     expect(rates.every((f) => plan(f, ['native']) === 'direct')).toBe(true);
     expect(plan(44100, ['native', 8000])).toBe('48000:160/147');
@@ -291,19 +271,7 @@ describe('planInputRate', () => {
 
   it('with channel rates that do not divide 48 kHz', () => {
     // The common multiple nearest 48 kHz: 44100 for 44.1 kHz and 11.025 kHz channels.
-    expect(rates.map((f) => plan(f, [44100]))).toEqual([
-      '44100:441/80',
-      '44100:4/1',
-      '44100:441/160',
-      '44100:2/1',
-      '44100:441/320',
-      'direct',
-      '44100:147/160',
-      'direct',
-      '44100:147/320',
-      'direct',
-      '44100:147/640',
-    ]);
+    expect(rates.map((f) => plan(f, [44100]))).toEqual(column(4));
     expect(plan(48000, [11025])).toBe('44100:147/160');
     expect(plan(22050, [11025])).toBe('direct');
     // 7 kHz: 49 kHz lies nearer 48 kHz than 42 kHz does.

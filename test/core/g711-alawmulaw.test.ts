@@ -1,34 +1,22 @@
 // The npm package alawmulaw (6.x) as an independent oracle for G.711.
 import { describe, it, expect } from 'vitest';
 import { alaw, mulaw } from 'alawmulaw';
-import {
-  aLawToLinear,
-  decodeALawBlock,
-  decodeMuLawBlock,
-  encodeALawBlock,
-  encodeMuLawBlock,
-  linearToALaw,
-  linearToMuLaw,
-  muLawToLinear,
-} from '../../core/quantizers/g711';
-import { A_REF, MU_REF, type LawReference } from './g711-reference';
-
-const ALL_CODES = Uint8Array.from({ length: 256 }, (_, i) => i);
-const ALL_INT16 = Int16Array.from({ length: 65536 }, (_, i) => i - 32768);
+import type { LawReference } from './g711-reference';
+import { A_LAW, ALL_CODES, ALL_INT16, MU_LAW } from './g711-laws';
 
 describe('decoding tables match alawmulaw for all 256 codes', () => {
-  // Source: npm alawmulaw mulaw.decode / decodeSample.
-  it('mu-law', () => {
-    expect(Array.from(decodeMuLawBlock(ALL_CODES))).toEqual(Array.from(mulaw.decode(ALL_CODES)));
-    // decodeSample returns the JS number -0 for -0 (0x7f); as int16 it is 0.
-    for (let c = 0; c < 256; c++) expect(muLawToLinear(c)).toBe(mulaw.decodeSample(c) + 0);
-  });
-
-  // Source: npm alawmulaw alaw.decode / decodeSample.
-  it('A-law', () => {
-    expect(Array.from(decodeALawBlock(ALL_CODES))).toEqual(Array.from(alaw.decode(ALL_CODES)));
-    for (let c = 0; c < 256; c++) expect(aLawToLinear(c)).toBe(alaw.decodeSample(c) + 0);
-  });
+  // Source: npm alawmulaw mulaw.decode / decodeSample and alaw.decode / decodeSample.
+  const cases = [
+    { law: MU_LAW, oracle: mulaw },
+    { law: A_LAW, oracle: alaw },
+  ];
+  for (const { law, oracle } of cases) {
+    it(law.name, () => {
+      expect(Array.from(law.decodeBlock(ALL_CODES))).toEqual(Array.from(oracle.decode(ALL_CODES)));
+      // decodeSample returns the JS number -0 for -0 (mu-law 0x7f); as int16 it is 0.
+      for (let c = 0; c < 256; c++) expect(law.toLinear(c)).toBe(oracle.decodeSample(c) + 0);
+    });
+  }
 });
 
 // Documented ties: alawmulaw quantizes the magnitude, so a negative input
@@ -81,23 +69,21 @@ function scalarMismatches(
 }
 
 describe('encoding matches alawmulaw on all 65536 inputs except documented ties', () => {
-  // Source: npm alawmulaw mulaw.encode; ties from G.711 Table 2 decision values (from memory).
-  it('mu-law', () => {
-    const diffs = checkEncoder(MU_REF, encodeMuLawBlock(ALL_INT16), mulaw.encode(ALL_INT16), muLawToLinear);
-    expect(diffs.length).toBe(EXPECTED_TIES);
-    expect(diffs).toEqual(MU_REF.decisions16.map((d) => -d).sort((x, y) => x - y));
-    expect(diffs.slice(-3)).toEqual([-20, -12, -4]);
-    expect(diffs[0]).toBe(-31612);
-    expect(scalarMismatches(MU_REF, linearToMuLaw, mulaw.encodeSample)).toEqual([]);
-  });
-
-  // Source: npm alawmulaw alaw.encode; ties from G.711 Table 1 decision values (from memory).
-  it('A-law', () => {
-    const diffs = checkEncoder(A_REF, encodeALawBlock(ALL_INT16), alaw.encode(ALL_INT16), aLawToLinear);
-    expect(diffs.length).toBe(EXPECTED_TIES);
-    expect(diffs).toEqual(A_REF.decisions16.map((d) => -d).sort((x, y) => x - y));
-    expect(diffs.slice(-3)).toEqual([-48, -32, -16]);
-    expect(diffs[0]).toBe(-31744);
-    expect(scalarMismatches(A_REF, linearToALaw, alaw.encodeSample)).toEqual([]);
-  });
+  // Source: npm alawmulaw mulaw.encode / alaw.encode; ties from the decision values of
+  // G.711 Table 2 (mu-law) / Table 1 (A-law) (from memory). The first and last three
+  // ties are -4 * d (mu-law) and -8 * d (A-law) for the largest and smallest d listed above.
+  const cases = [
+    { law: MU_LAW, oracle: mulaw, firstTie: -31612, lastTies: [-20, -12, -4] },
+    { law: A_LAW, oracle: alaw, firstTie: -31744, lastTies: [-48, -32, -16] },
+  ];
+  for (const { law, oracle, firstTie, lastTies } of cases) {
+    it(law.name, () => {
+      const diffs = checkEncoder(law.ref, law.encodeBlock(ALL_INT16), oracle.encode(ALL_INT16), law.toLinear);
+      expect(diffs.length).toBe(EXPECTED_TIES);
+      expect(diffs).toEqual(law.ref.decisions16.map((d) => -d).sort((x, y) => x - y));
+      expect(diffs.slice(-3)).toEqual(lastTies);
+      expect(diffs[0]).toBe(firstTie);
+      expect(scalarMismatches(law.ref, law.fromLinear, oracle.encodeSample)).toEqual([]);
+    });
+  }
 });

@@ -11,7 +11,6 @@ import {
   aLawToLinear,
   createG711AQuantizer,
   createG711MuQuantizer,
-  decodeALawBlock,
   decodeMuLawBlock,
   encodeALawBlock,
   encodeMuLawBlock,
@@ -31,22 +30,16 @@ import {
   fullLoadSinePower,
   referenceEncode,
 } from './g711-reference';
-
-const ALL_CODES = Uint8Array.from({ length: 256 }, (_, i) => i);
-const ALL_INT16 = Int16Array.from({ length: 65536 }, (_, i) => i - 32768);
+import { A_LAW, ALL_CODES, ALL_INT16, MU_LAW } from './g711-laws';
 
 describe('G.711 decoder outputs', () => {
-  // Source: G.711 Table 2 (mu-law) structure, from memory, via g711-reference.ts.
-  it('mu-law: all 256 characters decode to the table value', () => {
-    for (let c = 0; c < 256; c++) expect(muLawToLinear(c), `code ${c}`).toBe(MU_REF.decoded[c]);
-    expect(Array.from(decodeMuLawBlock(ALL_CODES))).toEqual(MU_REF.decoded);
-  });
-
-  // Source: G.711 Table 1 (A-law) structure, from memory, via g711-reference.ts.
-  it('A-law: all 256 characters decode to the table value', () => {
-    for (let c = 0; c < 256; c++) expect(aLawToLinear(c), `code ${c}`).toBe(A_REF.decoded[c]);
-    expect(Array.from(decodeALawBlock(ALL_CODES))).toEqual(A_REF.decoded);
-  });
+  // Source: G.711 Table 2 (mu-law) and Table 1 (A-law) structure, from memory, via g711-reference.ts.
+  for (const law of [MU_LAW, A_LAW]) {
+    it(`${law.name}: all 256 characters decode to the table value`, () => {
+      for (let c = 0; c < 256; c++) expect(law.toLinear(c), `code ${c}`).toBe(law.ref.decoded[c]);
+      expect(Array.from(law.decodeBlock(ALL_CODES))).toEqual(law.ref.decoded);
+    });
+  }
 
   // Source: G.711 Tables 1/2 (from memory): extreme and zero characters on the line.
   it('landmark characters', () => {
@@ -79,27 +72,18 @@ describe('G.711 decoder outputs', () => {
 describe('G.711 encoder against the decision values', () => {
   // Source: decision values of G.711 Tables 1/2 (from memory) via the reference's
   // linear search; ties by our stated convention (toward +infinity).
-  it('mu-law: every int16 input', () => {
-    const block = encodeMuLawBlock(ALL_INT16);
-    for (let i = 0; i < 65536; i++) {
-      const n = ALL_INT16[i];
-      const want = referenceEncode(MU_REF, n);
-      if (block[i] !== want || linearToMuLaw(n) !== want) {
-        expect({ n, got: block[i], scalar: linearToMuLaw(n) }).toEqual({ n, got: want, scalar: want });
+  for (const law of [MU_LAW, A_LAW]) {
+    it(`${law.name}: every int16 input`, () => {
+      const block = law.encodeBlock(ALL_INT16);
+      for (let i = 0; i < 65536; i++) {
+        const n = ALL_INT16[i];
+        const want = referenceEncode(law.ref, n);
+        if (block[i] !== want || law.fromLinear(n) !== want) {
+          expect({ n, got: block[i], scalar: law.fromLinear(n) }).toEqual({ n, got: want, scalar: want });
+        }
       }
-    }
-  });
-
-  it('A-law: every int16 input', () => {
-    const block = encodeALawBlock(ALL_INT16);
-    for (let i = 0; i < 65536; i++) {
-      const n = ALL_INT16[i];
-      const want = referenceEncode(A_REF, n);
-      if (block[i] !== want || linearToALaw(n) !== want) {
-        expect({ n, got: block[i], scalar: linearToALaw(n) }).toEqual({ n, got: want, scalar: want });
-      }
-    }
-  });
+    });
+  }
 
   // Convention (ours, stated in g711.ts): a negative input exactly on a decision
   // value takes the neighbour of smaller magnitude; a positive one the larger.

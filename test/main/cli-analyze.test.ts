@@ -7,7 +7,7 @@ import path from 'node:path';
 import { mulaw } from 'alawmulaw';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FileResult } from '../../main/cli/analyze-file';
-import { cli, sine, talker, tempDir, toPcm16, writePcm16 } from './cli-fixtures';
+import { cli, sine, talker, tempDir, toPcm16, wavFile, writePcm16 } from './cli-fixtures';
 
 let dir: string;
 let remove: () => Promise<void>;
@@ -28,31 +28,16 @@ beforeAll(async () => {
 
 afterAll(() => remove());
 
-/** A two-channel 16-bit PCM WAV file: RIFF/WAVE, fmt (tag 1), data, interleaved (Microsoft RIFF, from memory). */
+/** A two-channel 16-bit PCM WAV file: fmt tag 1, samples interleaved (Microsoft RIFF, from memory). */
 function stereoPcm16(rate: number, left: Float64Array, right: Float64Array): Uint8Array {
   const l = toPcm16(left);
   const r = toPcm16(right);
-  const bytes = new Uint8Array(44 + 4 * l.length);
-  const v = new DataView(bytes.buffer);
-  const id = (at: number, s: string) => [...s].forEach((c, i) => v.setUint8(at + i, c.charCodeAt(0)));
-  id(0, 'RIFF');
-  v.setUint32(4, bytes.length - 8, true);
-  id(8, 'WAVE');
-  id(12, 'fmt ');
-  v.setUint32(16, 16, true);
-  v.setUint16(20, 1, true);
-  v.setUint16(22, 2, true);
-  v.setUint32(24, rate, true);
-  v.setUint32(28, rate * 4, true);
-  v.setUint16(32, 4, true);
-  v.setUint16(34, 16, true);
-  id(36, 'data');
-  v.setUint32(40, 4 * l.length, true);
+  const data = new DataView(new ArrayBuffer(4 * l.length));
   for (let i = 0; i < l.length; i++) {
-    v.setInt16(44 + 4 * i, l[i], true);
-    v.setInt16(46 + 4 * i, r[i], true);
+    data.setInt16(4 * i, l[i], true);
+    data.setInt16(4 * i + 2, r[i], true);
   }
-  return bytes;
+  return wavFile({ tag: 1, channels: 2, rate, bits: 16 }, new Uint8Array(data.buffer));
 }
 
 async function analyzeJson(...argv: string[]): Promise<FileResult[]> {

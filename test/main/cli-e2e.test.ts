@@ -6,7 +6,7 @@ import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Progress, PROGRESS_DELAY_MS } from '../../main/cli/progress';
-import { bundleCli, cli, talker, tempDir, writePcm16 } from './cli-fixtures';
+import { bundleCli, cli, talker, tempDir, wavFile, writePcm16 } from './cli-fixtures';
 
 let dir: string;
 let remove: () => Promise<void>;
@@ -39,24 +39,9 @@ beforeAll(async () => {
 
 /** 32-bit float WAV (format tag 3, Microsoft RIFF, from memory) whose last sample is NaN: refused only at the end. */
 function floatWavWithNanAtEnd(rate: number, x: Float64Array): Uint8Array {
-  const bytes = new Uint8Array(44 + 4 * x.length);
-  const v = new DataView(bytes.buffer);
-  const id = (at: number, s: string) => [...s].forEach((c, i) => v.setUint8(at + i, c.charCodeAt(0)));
-  id(0, 'RIFF');
-  v.setUint32(4, bytes.length - 8, true);
-  id(8, 'WAVE');
-  id(12, 'fmt ');
-  v.setUint32(16, 16, true);
-  v.setUint16(20, 3, true);
-  v.setUint16(22, 1, true);
-  v.setUint32(24, rate, true);
-  v.setUint32(28, rate * 4, true);
-  v.setUint16(32, 4, true);
-  v.setUint16(34, 32, true);
-  id(36, 'data');
-  v.setUint32(40, 4 * x.length, true);
-  for (let i = 0; i < x.length; i++) v.setFloat32(44 + 4 * i, i === x.length - 1 ? NaN : x[i], true);
-  return bytes;
+  const data = new DataView(new ArrayBuffer(4 * x.length));
+  for (let i = 0; i < x.length; i++) data.setFloat32(4 * i, i === x.length - 1 ? NaN : x[i], true);
+  return wavFile({ tag: 3, channels: 1, rate, bits: 32 }, new Uint8Array(data.buffer));
 }
 
 afterAll(() => remove());
@@ -66,26 +51,10 @@ const CHANNELS = ['-c', 'g711-mu', '-c', 'g711-mu>g711-a', '-c', 'uniform:12@16k
 
 describe('parallel analysis', () => {
   it('gives the JSON of a serial run, byte for byte, in file order', async () => {
-    const serial = await runBundled([
-      'analyze',
-      ...FILES(),
-      ...CHANNELS,
-      '--align',
-      '-26',
-      '--json',
-      '--jobs',
-      '1',
-    ]);
-    const parallel = await runBundled([
-      'analyze',
-      ...FILES(),
-      ...CHANNELS,
-      '--align',
-      '-26',
-      '--json',
-      '--jobs',
-      '2',
-    ]);
+    const aligned = (jobs: string) =>
+      runBundled(['analyze', ...FILES(), ...CHANNELS, '--align', '-26', '--json', '--jobs', jobs]);
+    const serial = await aligned('1');
+    const parallel = await aligned('2');
     expect(serial.code).toBe(0);
     expect(parallel.code).toBe(0);
     expect(serial.stderr).toBe('');

@@ -12,6 +12,7 @@ import { runCli, type CliEnv } from '../../main/cli/run';
 import { fillGaussian, fillLaplacian } from '../../core/signals/noise';
 import { Xoshiro128 } from '../../core/signals/random';
 import { fillSine } from '../../core/signals/tone';
+import { ascii, fmt, le32, type FmtFields } from '../core/wav-riff';
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 
@@ -57,6 +58,23 @@ export function talker(
     for (let i = 0; i < burst.length && at + i < x.length; i++) x[at + i] = burst[i];
   }
   return x;
+}
+
+/** A WAV file: RIFF/WAVE, fmt, then data holding these sample bytes (layout of test/core/wav-riff.ts, from memory). */
+export function wavFile(format: FmtFields, data: Uint8Array): Uint8Array {
+  const fmtChunk = fmt(format);
+  const head = [
+    ...ascii('RIFF'),
+    ...le32(4 + fmtChunk.length + 8 + data.length),
+    ...ascii('WAVE'),
+    ...fmtChunk,
+    ...ascii('data'),
+    ...le32(data.length),
+  ];
+  const bytes = new Uint8Array(head.length + data.length);
+  bytes.set(head);
+  bytes.set(data, head.length);
+  return bytes;
 }
 
 export interface Run {

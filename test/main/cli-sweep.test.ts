@@ -18,16 +18,8 @@ describe('sweep', () => {
   });
 
   it('fails an 8-bit uniform channel at low levels, exit 1, with the handbook SNR', async () => {
-    const { code, reports } = await sweepJson(
-      '-c',
-      'uniform:8',
-      '--from',
-      '-40',
-      '--to',
-      '0',
-      '--step',
-      '10',
-    );
+    const uniform8 = ['-c', 'uniform:8', '--from', '-40', '--to', '0', '--step', '10'];
+    const { code, reports } = await sweepJson(...uniform8);
     expect(code).toBe(1);
     const [r] = reports;
     expect(r.judgement?.pass).toBe(false);
@@ -41,52 +33,19 @@ describe('sweep', () => {
     const at30 = r.judgement?.verdicts.find((v) => v.dbm0 === -30);
     expect(at30?.requiredDb).toBe(35);
     expect(at30?.pass).toBe(false);
-    const text = await cli(['sweep', '-c', 'uniform:8', '--from', '-40', '--to', '0', '--step', '10']);
+    const text = await cli(['sweep', ...uniform8]);
     expect(text.stdout).toMatch(/FAIL against "G\.712 sine method": 3 of 5 levels below the mask/);
     expect(text.stderr).toBe('quantiscope sweep: uniform:8 failed the mask');
   });
 
   it('holds a custom mask and the wideband figure when asked', async () => {
-    const strict = await cli([
-      'sweep',
-      '-c',
-      'g711-a',
-      '--from',
-      '-20',
-      '--to',
-      '0',
-      '--step',
-      '10',
-      '--mask',
-      '-30:45,0:45',
-    ]);
+    const aLaw = ['-c', 'g711-a', '--from', '-20', '--to', '0', '--step', '10'];
+    const strict = await cli(['sweep', ...aLaw, '--mask', '-30:45,0:45']);
     expect(strict.code).toBe(1);
-    const none = await sweepJson(
-      '-c',
-      'g711-a',
-      '--from',
-      '-20',
-      '--to',
-      '0',
-      '--step',
-      '10',
-      '--mask',
-      'none',
-    );
+    const none = await sweepJson(...aLaw, '--mask', 'none');
     expect(none.code).toBe(0);
     expect(none.reports[0].judgement).toBeNull();
-    const wide = await sweepJson(
-      '-c',
-      'g711-a',
-      '--from',
-      '-20',
-      '--to',
-      '0',
-      '--step',
-      '10',
-      '--figure',
-      'wideband',
-    );
+    const wide = await sweepJson(...aLaw, '--figure', 'wideband');
     expect(wide.reports[0].judgement?.figure).toBe('wideband');
   });
 

@@ -1,19 +1,22 @@
 // quantiscope analyze FILE... : the measurement engine over recordings.
-import { numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
+import { numberOption, valueOf, type ParsedArgs } from '../args';
 import type { AnalyzeTask, ChannelResult, FileResult } from '../analyze-file';
-import { EXIT_FAILURE, EXIT_OK, type CliContext, type Command } from '../context';
+import type { CliContext, Command } from '../context';
 import { csvLine, fixed, percent, signed, table } from '../format';
 import {
   analyseAll,
   canonical,
   CHANNEL_OPTION,
   channelsOf,
+  exitStatus,
   HELP_OPTION,
   inputOptionsOf,
   JOBS_OPTION,
   jobsOf,
   needFiles,
+  printReports,
   RAW_OPTION,
+  reportFormOf,
   TRACK_OPTION,
 } from './common';
 
@@ -149,9 +152,7 @@ export function resultsCsv(results: readonly FileResult[]): string[] {
 async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const files = needFiles(args);
   const channels = canonical(channelsOf(args, DEFAULT_ANALYZE_CHANNELS));
-  const json = args.flags.has('json');
-  const csv = args.flags.has('csv');
-  if (json && csv) throw new UsageError('choose one of --json and --csv');
+  const form = reportFormOf(args);
   const alignText = valueOf(args, 'align');
   const alignDbov = alignText === undefined ? null : numberOption('align', alignText, { min: -100, max: 0 });
   const input = inputOptionsOf(args);
@@ -164,19 +165,9 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   }));
   const settled = await analyseAll('analyze', tasks, jobsOf(args, ctx), ctx);
   const results = settled.flatMap((s) => (s.ok ? [s.value.result] : []));
-  if (json) ctx.io.out(JSON.stringify(results, null, 2));
-  else if (csv) resultsCsv(results).forEach((l) => ctx.io.out(l));
-  else
-    results.forEach((r, i) => {
-      if (i > 0) ctx.io.out('');
-      fileTable(r).forEach((l) => ctx.io.out(l));
-    });
+  printReports(ctx, form, results, resultsCsv, fileTable);
   const failed = settled.length - results.length;
-  if (failed > 0) {
-    ctx.io.err(`quantiscope analyze: ${failed} of ${settled.length} files failed`);
-    return EXIT_FAILURE;
-  }
-  return EXIT_OK;
+  return exitStatus(ctx, 'analyze', failed > 0 ? `${failed} of ${settled.length} files failed` : null);
 }
 
 export const analyzeCommand: Command = {

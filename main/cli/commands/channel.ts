@@ -6,8 +6,8 @@ import {
   type ChannelFigures,
 } from '../../../core/spec/index';
 import { UsageError, type ParsedArgs } from '../args';
-import { EXIT_FAILURE, EXIT_OK, type CliContext, type Command } from '../context';
-import { HELP_OPTION } from './common';
+import { EXIT_OK, type CliContext, type Command } from '../context';
+import { exitStatus, HELP_OPTION, printLines } from './common';
 
 function describe(f: ChannelFigures): string[] {
   const signed = (n: number) => (n >= 0 ? '+' : '') + n.toFixed(2);
@@ -32,12 +32,11 @@ async function runChannel(args: ParsedArgs, ctx: CliContext): Promise<number> {
     try {
       figures.push(channelFigures(text));
     } catch (err) {
-      ctx.io.err(`quantiscope channel: ${err instanceof Error ? err.message : String(err)}`);
-      return EXIT_FAILURE;
+      return exitStatus(ctx, 'channel', err instanceof Error ? err.message : String(err));
     }
   }
   if (args.flags.has('json')) ctx.io.out(JSON.stringify(figures));
-  else figures.forEach((f) => describe(f).forEach((l) => ctx.io.out(l)));
+  else figures.forEach((f) => printLines(ctx, describe(f)));
   return EXIT_OK;
 }
 

@@ -13,7 +13,7 @@ import {
   type ParsedArgs,
 } from '../args';
 import type { AnalyzeTask } from '../analyze-file';
-import type { CliContext } from '../context';
+import { EXIT_FAILURE, EXIT_OK, type CliContext } from '../context';
 import type { InputOptions } from '../input';
 import { Progress, TaskProgress } from '../progress';
 import { runTasks, type Settled } from '../workers';
@@ -78,6 +78,44 @@ export function inputOptionsOf(args: ParsedArgs): InputOptions {
 export function jobsOf(args: ParsedArgs, ctx: CliContext): number {
   const j = valueOf(args, 'jobs');
   return j === undefined ? ctx.cores : numberOption('jobs', j, { integer: true, min: 1, max: 256 });
+}
+
+/** How a report is printed: --json, --csv (not both) or the terminal tables. */
+export type ReportForm = 'json' | 'csv' | 'table';
+
+export function reportFormOf(args: ParsedArgs): ReportForm {
+  const json = args.flags.has('json');
+  const csv = args.flags.has('csv');
+  if (json && csv) throw new UsageError('choose one of --json and --csv');
+  return json ? 'json' : csv ? 'csv' : 'table';
+}
+
+export function printLines(ctx: CliContext, lines: readonly string[]): void {
+  for (const l of lines) ctx.io.out(l);
+}
+
+/** One indented JSON array, the CSV of all, or a table each with a blank line between. */
+export function printReports<T>(
+  ctx: CliContext,
+  form: ReportForm,
+  reports: readonly T[],
+  csv: (all: readonly T[]) => string[],
+  tableOf: (r: T) => string[],
+): void {
+  if (form === 'json') ctx.io.out(JSON.stringify(reports, null, 2));
+  else if (form === 'csv') printLines(ctx, csv(reports));
+  else
+    reports.forEach((r, i) => {
+      if (i > 0) ctx.io.out('');
+      printLines(ctx, tableOf(r));
+    });
+}
+
+/** The exit status once the report is out: a failure, if any, goes to stderr under the command's name. */
+export function exitStatus(ctx: CliContext, command: string, failure: string | null): number {
+  if (failure === null) return EXIT_OK;
+  ctx.io.err(`quantiscope ${command}: ${failure}`);
+  return EXIT_FAILURE;
 }
 
 export function needFiles(args: ParsedArgs, what = 'at least one audio file'): string[] {

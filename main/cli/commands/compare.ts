@@ -24,7 +24,14 @@ import { EXIT_OK, type CliContext, type Command } from '../context';
 import { fixed, finiteOrNull, percent, signed, table } from '../format';
 import { INPUT_BLOCK, openInput, type Input, type InputOptions } from '../input';
 import { Progress } from '../progress';
-import { HELP_OPTION, inputOptionsOf, parseChannelOption, RAW_OPTION, TRACK_OPTION } from './common';
+import {
+  HELP_OPTION,
+  inputOptionsOf,
+  parseChannelOption,
+  printLines,
+  RAW_OPTION,
+  TRACK_OPTION,
+} from './common';
 
 /** Below this |rho| the match is called unreliable: the channel's SNR would be under about 6 dB. */
 export const RELIABLE_CORRELATION = 0.9;
@@ -299,7 +306,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     })),
   };
   if (args.flags.has('json')) ctx.io.out(JSON.stringify(report, null, 2));
-  else compareTable(report).forEach((l) => ctx.io.out(l));
+  else printLines(ctx, compareTable(report));
   for (const w of warnings) if (w.startsWith('alignment unreliable')) ctx.io.err(`quantiscope compare: ${w}`);
   return EXIT_OK;
 }

@@ -17,16 +17,18 @@ import type { ChannelSpec } from '../../../core/spec/types';
 import { PCM16_SCALE } from '../../../core/units/levels';
 import { choiceOption, numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
 import type { AnalyzeOutcome, AnalyzeTask, LevelsResult } from '../analyze-file';
-import { EXIT_FAILURE, EXIT_OK, type CliContext, type Command } from '../context';
+import type { CliContext, Command } from '../context';
 import { fixed, percent, signed, table } from '../format';
 import type { Settled } from '../workers';
 import {
   analyseAll,
+  exitStatus,
   HELP_OPTION,
   inputOptionsOf,
   JOBS_OPTION,
   jobsOf,
   needFiles,
+  printLines,
   RAW_OPTION,
   TRACK_OPTION,
 } from './common';
@@ -221,8 +223,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const good = successes(first);
   let failed = first.length - good.length;
   if (good.length === 0) {
-    ctx.io.err('quantiscope design: no file could be read, so there is nothing to design for');
-    return EXIT_FAILURE;
+    return exitStatus(ctx, 'design', 'no file could be read, so there is nothing to design for');
   }
   const levels = mergeLevels(good.map((o) => o.levels as LevelsResult));
   const okFiles = good.map((o) => o.result.file);
@@ -258,8 +259,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   }
   if (wantRecommend) {
     if (levels.frameLevelsDbov.length === 0) {
-      ctx.io.err('quantiscope design: the files hold no active frames to recommend for');
-      return EXIT_FAILURE;
+      return exitStatus(ctx, 'design', 'the files hold no active frames to recommend for');
     }
     out.recommendation = recommend(
       {
@@ -272,15 +272,15 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   }
   if (json) ctx.io.out(JSON.stringify(out, null, 2));
   else {
-    if (out.design !== undefined) designTable(out.design).forEach((l) => ctx.io.out(l));
+    if (out.design !== undefined) printLines(ctx, designTable(out.design));
     if (out.design !== undefined && out.recommendation !== undefined) ctx.io.out('');
-    if (out.recommendation !== undefined) recommendTable(out.recommendation).forEach((l) => ctx.io.out(l));
+    if (out.recommendation !== undefined) printLines(ctx, recommendTable(out.recommendation));
   }
-  if (failed > 0) {
-    ctx.io.err(`quantiscope design: ${failed} file run(s) failed; the figures above leave them out`);
-    return EXIT_FAILURE;
-  }
-  return EXIT_OK;
+  return exitStatus(
+    ctx,
+    'design',
+    failed > 0 ? `${failed} file run(s) failed; the figures above leave them out` : null,
+  );
 }
 
 export const designCommand: Command = {

@@ -10,9 +10,9 @@ import {
   type SweepResult,
 } from '../../../core/sweep/index';
 import { choiceOption, numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
-import { EXIT_FAILURE, EXIT_OK, type CliContext, type Command } from '../context';
+import type { CliContext, Command } from '../context';
 import { csvLine, fixed, signed, table } from '../format';
-import { CHANNEL_OPTION, channelsOf, HELP_OPTION } from './common';
+import { CHANNEL_OPTION, channelsOf, exitStatus, HELP_OPTION, printReports, reportFormOf } from './common';
 
 /** In-band and wideband figures after the first s stages of a tandem, per level. */
 export interface StageSweep {
@@ -159,9 +159,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   if (args.operands.length > 0) throw new UsageError(`sweep takes no files (got ${args.operands[0]})`);
   const specs = channelsOf(args, []);
   if (specs.length === 0) throw new UsageError('give at least one --channel');
-  const json = args.flags.has('json');
-  const csv = args.flags.has('csv');
-  if (json && csv) throw new UsageError('choose one of --json and --csv');
+  const form = reportFormOf(args);
   const num = (name: string, fallback: number) => {
     const t = valueOf(args, name);
     return t === undefined ? fallback : numberOption(name, t, { min: -150, max: 50 });
@@ -189,19 +187,13 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
       throw err;
     }
   }
-  if (json) ctx.io.out(JSON.stringify(reports, null, 2));
-  else if (csv) sweepCsv(reports).forEach((l) => ctx.io.out(l));
-  else
-    reports.forEach((r, i) => {
-      if (i > 0) ctx.io.out('');
-      sweepTable(r).forEach((l) => ctx.io.out(l));
-    });
+  printReports(ctx, form, reports, sweepCsv, sweepTable);
   const failed = reports.filter((r) => r.judgement !== null && r.judgement.judged > 0 && !r.judgement.pass);
-  if (failed.length > 0) {
-    ctx.io.err(`quantiscope sweep: ${failed.map((r) => r.channel).join(', ')} failed the mask`);
-    return EXIT_FAILURE;
-  }
-  return EXIT_OK;
+  return exitStatus(
+    ctx,
+    'sweep',
+    failed.length > 0 ? `${failed.map((r) => r.channel).join(', ')} failed the mask` : null,
+  );
 }
 
 export const sweepCommand: Command = {
