@@ -1,15 +1,11 @@
-// First page of the renderer: shell info, the output (muted by default) with a test
-// tone through the channel worklet, and the channel presets as core computes them.
+// The renderer page: shell info, the live engine's controls (output muted at start) and
+// the channel presets as core computes them. window.quantiscope is the typed handle the
+// tests (and later the views) use.
 import { pickBridge } from './bridge';
 import { h } from './dom';
-import {
-  clampVolumeDb,
-  MonitorEngine,
-  OUTPUT_CAP_DB,
-  OUTPUT_MIN_DB,
-  TEST_TONE_HZ,
-  type EngineStatus,
-} from './audio/engine';
+import { AudioEngine, ENGINE_RATE, renderOffline } from './audio/engine';
+import { Analyzer, type AnalysisSnapshot } from '../core/analysis/analyzer';
+import { enginePanel } from './engine-panel';
 import { channelFigures, type ChannelFigures } from '../core/spec/index';
 import { PAGE_PRESETS } from './presets';
 
@@ -67,78 +63,61 @@ function presetPanel(): HTMLElement {
   );
 }
 
-function outputPanel(): HTMLElement {
-  const state = h(
-    'span',
-    { class: 'output-state', 'data-testid': 'output-state', 'data-muted': 'true' },
-    'Output muted',
-  );
-  const toggle = h('button', { type: 'button', 'data-testid': 'output-toggle', disabled: true }, 'Unmute');
-  const volume = h('input', {
-    type: 'range',
-    min: OUTPUT_MIN_DB,
-    max: OUTPUT_CAP_DB,
-    step: 1,
-    'data-testid': 'output-volume',
-    'aria-label': 'Monitor volume (dB)',
-    disabled: true,
-  });
-  const volumeText = h('span', { 'data-testid': 'output-volume-text' });
-  const start = h('button', { type: 'button', 'data-testid': 'engine-start' }, 'Start test tone');
-  const channel = h(
-    'select',
-    { 'data-testid': 'engine-channel', 'aria-label': 'Channel' },
-    ...PAGE_PRESETS.map((t) => h('option', { value: t }, t)),
-  );
-  const engineState = h('span', { class: 'engine-state', 'data-testid': 'engine-state' }, 'engine stopped');
+export interface QuantiscopeHandle {
+  engine: AudioEngine;
+  renderOffline: (
+    samples: Float32Array,
+    channels?: { a: string; b: string },
+    options?: Parameters<typeof renderOffline>[3],
+  ) => ReturnType<typeof renderOffline>;
+  /** Core's offline analysis in this page's JavaScript engine (for comparing with the worklet). */
+  analyze: (samples: Float32Array, channels: string[], finish?: boolean) => OfflineCore;
+}
 
-  const show = (s: EngineStatus) => {
-    state.textContent = s.muted ? 'Output muted' : 'Output live';
-    state.dataset.muted = String(s.muted);
-    toggle.textContent = s.muted ? 'Unmute' : 'Mute';
-    toggle.disabled = !s.running;
-    volume.disabled = !s.running;
-    volume.value = String(s.volumeDb);
-    volumeText.textContent = `${s.volumeDb} dB (cap ${OUTPUT_CAP_DB} dB)`;
-    engineState.textContent = s.error
-      ? `error: ${s.error}`
-      : s.running
-        ? `running at ${s.sampleRate} Hz through ${s.channel ?? '…'}`
-        : 'engine stopped';
-    engineState.dataset.running = String(s.running);
-  };
-  const engine = new MonitorEngine('worklet.js', show);
-  show(engine.status);
+declare global {
+  interface Window {
+    quantiscope: QuantiscopeHandle;
+  }
+}
 
-  start.addEventListener('click', () => {
-    start.disabled = true;
-    engine.start(channel.value).catch((err: unknown) => {
-      engine.status.error = err instanceof Error ? err.message : String(err);
-      show(engine.status);
-    });
-  });
-  channel.addEventListener('change', () => engine.setChannel(channel.value));
-  toggle.addEventListener('click', () => engine.setMuted(!engine.status.muted));
-  volume.addEventListener('input', () => engine.setVolumeDb(clampVolumeDb(Number(volume.value))));
+export interface OfflineCore {
+  analysis: AnalysisSnapshot;
+  outA: Float32Array;
+  outB: Float32Array;
+}
 
-  return h(
-    'section',
-    { class: 'panel', 'data-testid': 'output-panel' },
-    h('h2', {}, 'Output'),
-    h('div', { class: 'output-row' }, state, toggle, volume, volumeText),
-    h('div', { class: 'output-row' }, start, channel, engineState),
-    h(
-      'p',
-      { class: 'hint' },
-      `The test tone is ${TEST_TONE_HZ} Hz at -20 dB re full scale; it stays silent until unmuted.`,
-    ),
-  );
+/** Core alone on a whole signal, in offline-sized blocks: figures (finished, unless told) and the listening outputs of A and B. */
+function analyzeOffline(samples: Float32Array, channels: string[], finish = true): OfflineCore {
+  const block = 4096;
+  const a = new Analyzer({ inputRate: ENGINE_RATE, channels, maxBlock: block, listen: true });
+  const outA = new Float32Array(samples.length);
+  const outB = new Float32Array(samples.length);
+  for (let at = 0; at < samples.length; at += block) {
+    const n = Math.min(block, samples.length - at);
+    a.processBlock(samples.subarray(at, at + n), n);
+    outA.set(a.path.output48[0].subarray(0, n), at);
+    outB.set(a.path.output48[1].subarray(0, n), at);
+  }
+  if (finish) a.finish();
+  return { analysis: a.snapshot(), outA, outB };
+}
+
+/** `?record=SECONDS` keeps that much of the received input in the worklet, for tests. */
+function recordSeconds(): number {
+  const v = Number(new URLSearchParams(location.search).get('record') ?? 0);
+  return Number.isFinite(v) && v > 0 ? Math.min(v, 60) : 0;
 }
 
 async function main(): Promise<void> {
   const root = document.getElementById('app');
   if (!root) return;
-  root.append(outputPanel(), presetPanel());
+  const engine = new AudioEngine('worklet.js', undefined, recordSeconds());
+  window.quantiscope = {
+    engine,
+    renderOffline: (samples, channels, options) => renderOffline('worklet.js', samples, channels, options),
+    analyze: analyzeOffline,
+  };
+  root.append(enginePanel(engine), presetPanel());
   const info = await pickBridge().appInfo();
   const shell = document.querySelector<HTMLElement>('[data-testid="shell-info"]');
   if (shell) {

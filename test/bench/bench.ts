@@ -13,6 +13,7 @@ import './figures-channel';
 import './figures-measure';
 import './figures-analysis';
 import './figures-cli';
+import './figures-offline-render';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 

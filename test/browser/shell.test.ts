@@ -117,14 +117,27 @@ describe('renderer in the browser shell', () => {
         const source = new AudioBufferSourceNode(ctx, { buffer });
         const node = new AudioWorkletNode(ctx, 'quantiscope-channel', {
           outputChannelCount: [1],
-          processorOptions: { channel: 'g711-mu', muted },
+          processorOptions: {
+            a: 'g711-mu',
+            muted,
+            monitor: 'a',
+            recordSeconds: 1,
+            finishAtFrame: pcm.length,
+          },
+        });
+        // Channel A's output as the worklet computed it, recorded beside the input it received.
+        const final = new Promise<Float32Array>((resolve) => {
+          node.port.onmessage = (e: MessageEvent<{ type: string; outA: Float32Array }>) => {
+            if (e.data.type === 'final') resolve(e.data.outA);
+          };
         });
         source.connect(node).connect(ctx.destination);
         source.start();
         const result = await ctx.startRendering();
-        return Array.from(result.getChannelData(0), (v) => v * 32768);
+        return { out: Array.from(result.getChannelData(0)), a: Array.from(await final, (v) => v * 32768) };
       };
-      return { muted: await render(true), live: await render(false) };
+      const muted = await render(true);
+      return { muted: muted.out, live: (await render(false)).a };
     }, input);
 
     expect(rendered.muted.every((v) => v === 0)).toBe(true);

@@ -1,17 +1,41 @@
-// The channel on the audio thread: input -> core quantizer stage(s) -> output.
-// Silent until unmuted. process() allocates nothing; stages are built on message.
-// (The full engine, with the channel's own rate and the accumulators, is a later issue;
-// for now the stages run at the context's rate.)
-import { createQuantizer, type Quantizer } from '../../../core/quantizers/index';
-import { formatChannel, parseChannel } from '../../../core/spec/index';
-import { PROCESSOR_NAME, type FromWorklet, type ToWorklet, type WorkletStartOptions } from './messages';
+// The channel engine on the audio thread: core's Analyzer runs the Reference and
+// channels A and B on every render quantum, feeds every accumulator, and the monitor
+// mix (with its crossfades), volume and hard ceiling make the output. Snapshots go
+// out ~25 times a second in pooled envelopes. process() allocates nothing: analyzers,
+// envelopes and rings are all built in the constructor or in message handlers.
+//
+// A channel change builds the new analyzer in the message handler and runs it beside
+// the old one until its filters have filled; the monitor then crossfades from the old
+// mix to the new one, so a change never clicks.
+import { Analyzer } from '../../../core/analysis/analyzer';
+import { Xoshiro128 } from '../../../core/signals/random';
+import { HowlWatch } from './howl-watch';
+import {
+  DEFAULT_CHANNEL_A,
+  DEFAULT_CHANNEL_B,
+  MONITOR_FADE_S,
+  OUTPUT_CEILING_DBFS,
+  OUTPUT_START_DB,
+  PROCESSOR_NAME,
+  SNAPSHOTS_PER_SECOND,
+  clampVolumeDb,
+  type ChannelSlot,
+  type FromWorklet,
+  type MonitorChoice,
+  type SnapshotEnvelope,
+  type ToWorklet,
+  type WorkletStartOptions,
+} from './messages';
+import { MonitorMix, SOURCE_A, SOURCE_B, SOURCE_ERROR_A, SOURCE_ERROR_B, SOURCE_REF } from './monitor-mix';
+import { OutputStage } from './output-stage';
+import { RecordRing } from './record-ring';
+import { SnapshotPool } from './snapshot-pool';
 
 // The AudioWorkletGlobalScope names we use; TypeScript ships no lib for this scope.
-// Declared here (module scope) so they do not leak into the renderer's types.
 declare const sampleRate: number;
 declare class AudioWorkletProcessor {
   readonly port: {
-    postMessage(message: FromWorklet): void;
+    postMessage(message: FromWorklet, transfer?: ArrayBuffer[]): void;
     onmessage: ((event: { data: ToWorklet }) => void) | null;
   };
 }
@@ -20,58 +44,293 @@ declare function registerProcessor(
   ctor: new (options?: { processorOptions?: WorkletStartOptions }) => AudioWorkletProcessor,
 ): void;
 
-class ChannelProcessor extends AudioWorkletProcessor {
-  private stages: Quantizer[] = [];
-  private stageCount = 0;
-  private muted = true;
-  private announced = false;
+/** The render quantum of Web Audio (Web Audio API, 1.0: 128 frames). */
+const QUANTUM = 128;
+const DEFAULT_POOL = 4;
+
+interface Stage {
+  analyzer: Analyzer;
+  pool: SnapshotPool;
+  a: string;
+  b: string;
+}
+
+export class ChannelProcessor extends AudioWorkletProcessor {
+  private readonly rate: number;
+  private stage: Stage;
+  private next: Stage | null = null;
+  /** Frames the next stage has run, and how many it runs before (and while) the monitor crossfades to it. */
+  private nextFrames = 0;
+  private nextWarm = 0;
+  private generation = 0;
+  private readonly poolSize: number;
+  private readonly mix: MonitorMix;
+  private readonly output: OutputStage;
+  private readonly mixBuffer = new Float64Array(QUANTUM);
+  private readonly nextBuffer = new Float64Array(QUANTUM);
+  private readonly silence = new Float32Array(QUANTUM);
+  private readonly record: RecordRing;
+  private readonly howl: HowlWatch;
+  private readonly coin: Xoshiro128;
+  private readonly fadeLength: number;
+  private readonly snapshotEvery: number;
+  private readonly finishAt: number;
+  private finished = false;
+  private frame = 0;
+  private sinceSnapshot = 0;
+  private inputChannel = 0;
+  private live = false;
+  private choice: MonitorChoice = 'ref';
+  private hidden: ChannelSlot = 'a';
+  private errorOf: ChannelSlot = 'a';
+  private gainDb = 0;
+  private readonly finalHowl = { howling: false, frequencyHz: null as number | null };
 
   constructor(options?: { processorOptions?: WorkletStartOptions }) {
     super();
+    const o = options?.processorOptions ?? {};
+    this.rate = sampleRate;
+    this.poolSize = Math.max(1, Math.floor(o.poolSize ?? DEFAULT_POOL));
+    this.gainDb = Number.isFinite(o.gainDb) ? (o.gainDb as number) : 0;
+    this.stage = this.build(o.a ?? DEFAULT_CHANNEL_A, o.b ?? DEFAULT_CHANNEL_B);
+    this.fadeLength = Math.max(1, Math.round(MONITOR_FADE_S * this.rate));
+    this.mix = new MonitorMix(this.fadeLength, QUANTUM);
+    this.output = new OutputStage(
+      this.rate,
+      OUTPUT_CEILING_DBFS,
+      clampVolumeDb(o.volumeDb ?? OUTPUT_START_DB),
+    );
+    this.output.muted = o.muted !== false;
+    this.record = new RecordRing(Math.max(0, Math.round((o.recordSeconds ?? 0) * this.rate)));
+    this.howl = new HowlWatch(this.rate);
+    this.coin = new Xoshiro128(o.seed ?? 1);
+    this.snapshotEvery = Math.round(this.rate / SNAPSHOTS_PER_SECOND);
+    this.finishAt = o.finishAtFrame !== undefined && o.finishAtFrame >= 0 ? Math.floor(o.finishAtFrame) : -1;
     this.port.onmessage = (event) => this.receive(event.data);
-    // Start-up settings arrive with the node, so the very first block already uses them.
-    const start = options?.processorOptions;
-    if (start?.channel !== undefined) this.receive({ type: 'channel', text: start.channel });
-    if (start?.muted === false) this.muted = false;
+    if (o.monitor !== undefined) this.setMonitor(o.monitor, true);
+    this.live = o.live === true;
+    this.port.postMessage({
+      type: 'ready',
+      sampleRate: this.rate,
+      latency: this.stage.analyzer.path.latency,
+      a: this.stage.a,
+      b: this.stage.b,
+    });
   }
 
-  private receive(message: ToWorklet): void {
-    if (message.type === 'mute') {
-      this.muted = message.muted;
-      this.port.postMessage({ type: 'muted', muted: this.muted });
-      return;
-    }
+  private build(a: string, b: string): Stage {
+    const analyzer = new Analyzer({
+      inputRate: this.rate,
+      channels: [a, b],
+      maxBlock: QUANTUM,
+      listen: true,
+      gainDb: this.gainDb,
+    });
+    const generation = ++this.generation;
+    const pool = new SnapshotPool(generation, analyzer, this.poolSize);
+    const texts = analyzer.createSnapshot().channels;
+    return { analyzer, pool, a: texts[0].text, b: texts[1].text };
+  }
+
+  private receive(m: ToWorklet): void {
     try {
-      const spec = parseChannel(message.text);
-      this.stages = spec.stages.map((s) => createQuantizer(s));
-      this.stageCount = this.stages.length;
-      this.port.postMessage({ type: 'channel', canonical: formatChannel(spec) });
+      this.handle(m);
     } catch (err) {
       this.port.postMessage({ type: 'error', message: err instanceof Error ? err.message : String(err) });
     }
   }
 
+  private handle(m: ToWorklet): void {
+    switch (m.type) {
+      case 'channels': {
+        this.next = this.build(m.a, m.b);
+        this.nextFrames = 0;
+        // Filled filters (the path's delay, twice, for the onset transient) then the fade.
+        this.nextWarm = 2 * this.next.analyzer.path.latency + this.fadeLength;
+        return;
+      }
+      case 'monitor':
+        this.setMonitor(m.choice, false);
+        return;
+      case 'error-of':
+        this.errorOf = m.slot;
+        if (this.choice === 'error') this.mix.request(this.sourceOf('error'));
+        this.announceMonitor();
+        return;
+      case 'error-gain':
+        if (Number.isFinite(m.db)) this.mix.errorGain = Math.pow(10, Math.min(40, Math.max(-40, m.db)) / 20);
+        return;
+      case 'reveal':
+        this.port.postMessage({ type: 'revealed', hidden: this.hidden });
+        return;
+      case 'mute':
+        this.output.muted = m.muted;
+        this.port.postMessage({ type: 'muted', muted: this.output.muted });
+        return;
+      case 'volume':
+        this.output.setVolumeDb(clampVolumeDb(m.db));
+        return;
+      case 'gain':
+        if (!Number.isFinite(m.db))
+          throw new RangeError(`input gain must be a finite number of dB (got ${m.db})`);
+        this.gainDb = m.db;
+        this.stage.analyzer.gainDb = m.db;
+        if (this.next) this.next.analyzer.gainDb = m.db;
+        return;
+      case 'input-channel':
+        this.inputChannel = Math.max(0, Math.floor(m.channel));
+        return;
+      case 'live':
+        this.live = m.live;
+        if (!m.live) this.howl.reset();
+        return;
+      case 'reset':
+        this.stage.analyzer.reset();
+        this.record.reset();
+        this.howl.reset();
+        this.frame = 0;
+        this.sinceSnapshot = 0;
+        this.finished = false;
+        return;
+      case 'release':
+        this.stage.pool.release(m.envelope);
+        return;
+      case 'fetch-record':
+        this.port.postMessage({
+          type: 'record',
+          frames: this.frame,
+          input: this.record.read(this.record.input),
+          outA: this.record.read(this.record.outA),
+          outB: this.record.read(this.record.outB),
+          analysis: this.stage.analyzer.snapshot(),
+        });
+        return;
+    }
+  }
+
+  private sourceOf(choice: MonitorChoice): number {
+    switch (choice) {
+      case 'a':
+        return SOURCE_A;
+      case 'b':
+        return SOURCE_B;
+      case 'hidden':
+        return this.hidden === 'a' ? SOURCE_A : SOURCE_B;
+      case 'error':
+        return this.errorOf === 'a' ? SOURCE_ERROR_A : SOURCE_ERROR_B;
+      default:
+        return SOURCE_REF;
+    }
+  }
+
+  private setMonitor(choice: MonitorChoice, immediate: boolean): void {
+    // Each pick of Hidden tosses the seeded coin again.
+    if (choice === 'hidden') this.hidden = (this.coin.nextUint32() & 1) === 0 ? 'a' : 'b';
+    this.choice = choice;
+    const source = this.sourceOf(choice);
+    if (immediate) {
+      this.mix.current = source;
+      this.mix.target = source;
+    } else this.mix.request(source);
+    this.announceMonitor();
+  }
+
+  private announceMonitor(): void {
+    this.port.postMessage({ type: 'monitor', choice: this.choice, errorOf: this.errorOf });
+  }
+
   process(inputs: Float32Array[][], outputs: Float32Array[][]): boolean {
-    if (!this.announced) {
-      this.announced = true;
-      this.port.postMessage({ type: 'running', sampleRate });
+    const input = inputs.length > 0 ? inputs[0] : null;
+    const outs = outputs[0];
+    const n = outs.length > 0 ? outs[0].length : QUANTUM;
+    let block: Float32Array = this.silence;
+    if (input !== null && input.length > 0)
+      block = input.length > this.inputChannel ? input[this.inputChannel] : input[0];
+
+    // Offline: measure exactly finishAt frames, whatever the quantum's padding.
+    let measured = n;
+    if (this.finishAt >= 0) measured = this.finished ? 0 : Math.min(n, this.finishAt - this.frame);
+
+    const stage = this.stage;
+    const path = stage.analyzer.path;
+    const mixBuffer = this.mixBuffer;
+    if (measured > 0) {
+      stage.analyzer.processBlock(block, measured);
+      this.record.write(block, path.output48[0], path.output48[1], measured);
+      if (this.live) this.howl.add(block, measured);
     }
-    const input = inputs[0];
-    const output = outputs[0];
-    for (let ch = 0; ch < output.length; ch++) {
-      const out = output[ch];
-      const inp = input.length > ch ? input[ch] : input.length > 0 ? input[0] : null;
-      if (this.muted || inp === null || this.stageCount === 0) {
-        out.fill(0);
-        continue;
+    this.mix.prepare(measured);
+    for (let i = 0; i < n; i++) mixBuffer[i] = 0;
+    const next = this.next;
+    if (next !== null && measured > 0) {
+      next.analyzer.processBlock(block, measured);
+      const fadeStart = this.nextWarm - this.fadeLength;
+      const nb = this.nextBuffer;
+      for (let i = 0; i < measured; i++) nb[i] = 0;
+      this.mix.mixInto(path, mixBuffer, measured);
+      this.mix.mixInto(next.analyzer.path, nb, measured);
+      const len = this.fadeLength;
+      for (let i = 0; i < measured; i++) {
+        const f = this.nextFrames + i + 1 - fadeStart;
+        const w = f <= 0 ? 0 : f >= len ? 1 : f / len;
+        mixBuffer[i] = (1 - w) * mixBuffer[i] + w * nb[i];
       }
-      for (let i = 0; i < out.length; i++) {
-        let v = inp[i];
-        for (let s = 0; s < this.stageCount; s++) v = this.stages[s].quantize(v);
-        out[i] = v;
-      }
+      this.nextFrames += measured;
+      if (this.nextFrames >= this.nextWarm) this.swap(next);
+    } else if (measured > 0) this.mix.mixInto(path, mixBuffer, measured);
+
+    if (outs.length > 0) {
+      this.output.run(mixBuffer, outs[0], n);
+      for (let c = 1; c < outs.length; c++) outs[c].set(outs[0]);
     }
+
+    this.frame += measured;
+    this.sinceSnapshot += measured;
+    if (this.finishAt >= 0 && !this.finished && this.frame >= this.finishAt) this.finish();
+    else if (this.sinceSnapshot >= this.snapshotEvery) this.post();
     return true;
+  }
+
+  private swap(next: Stage): void {
+    this.stage = next;
+    this.next = null;
+    this.frame = this.nextFrames;
+    this.record.reset();
+    this.port.postMessage({ type: 'channels', a: next.a, b: next.b, latency: next.analyzer.path.latency });
+  }
+
+  private post(): void {
+    this.sinceSnapshot = 0;
+    // The howl watch is read every period, posted or not, so 'ever' misses nothing.
+    this.howl.read(this.finalHowl);
+    const pool = this.stage.pool;
+    const envelope: SnapshotEnvelope | null = pool.take();
+    // Every envelope still with the main thread: skip this one rather than allocate.
+    if (envelope === null) return;
+    envelope.frame = this.frame;
+    this.stage.analyzer.snapshot(envelope.analysis);
+    envelope.howl.howling = this.finalHowl.howling;
+    envelope.howl.frequencyHz = this.finalHowl.frequencyHz;
+    envelope.outputPeak = this.output.periodPeak;
+    envelope.limiterDb = 20 * Math.log10(this.output.periodMinGain);
+    this.output.resetPeriod();
+    this.port.postMessage(envelope, pool.transferOf(envelope));
+  }
+
+  private finish(): void {
+    this.finished = true;
+    this.stage.analyzer.finish();
+    this.howl.read(this.finalHowl);
+    // Once, at the end of an offline render: a plain message is fine here.
+    this.port.postMessage({
+      type: 'final',
+      analysis: this.stage.analyzer.snapshot(),
+      frames: this.frame,
+      input: this.record.read(this.record.input),
+      outA: this.record.read(this.record.outA),
+      outB: this.record.read(this.record.outB),
+      howlEver: this.howl.ever,
+    });
   }
 }
 
