@@ -8,6 +8,9 @@ import { Analyzer, type AnalysisSnapshot } from '../core/analysis/analyzer';
 import { enginePanel } from './engine-panel';
 import { channelFigures, type ChannelFigures } from '../core/spec/index';
 import { PAGE_PRESETS } from './presets';
+import { pageLayout } from './views/layout';
+import { mountLive } from './views/live/index';
+import 'uplot/dist/uPlot.min.css';
 
 const fmt = (n: number, digits: number) => n.toFixed(digits);
 const signed = (n: number, digits: number) => (n >= 0 ? '+' : '') + n.toFixed(digits);
@@ -117,7 +120,10 @@ async function main(): Promise<void> {
     renderOffline: (samples, channels, options) => renderOffline('worklet.js', samples, channels, options),
     analyze: analyzeOffline,
   };
-  root.append(enginePanel(engine), presetPanel());
+  const layout = pageLayout(root);
+  layout.sidebar.append(enginePanel(engine));
+  mountLive(layout.main, { engine });
+  layout.main.append(presetPanel());
   const info = await pickBridge().appInfo();
   const shell = document.querySelector<HTMLElement>('[data-testid="shell-info"]');
   if (shell) {
