@@ -63,6 +63,13 @@ const targets = [
     platform: 'neutral',
     format: 'esm',
   },
+  // The views' compute worker (sweeps, design, recommender): one classic-worker file.
+  {
+    entry: 'renderer/workers/compute.ts',
+    out: 'renderer/compute-worker.js',
+    platform: 'browser',
+    format: 'iife',
+  },
   {
     entry: 'test/bench/bench.ts',
     out: 'bench/bench.mjs',

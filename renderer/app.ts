@@ -10,6 +10,10 @@ import { channelFigures, type ChannelFigures } from '../core/spec/index';
 import { PAGE_PRESETS } from './presets';
 import { pageLayout } from './views/layout';
 import { mountLive } from './views/live/index';
+import { mountChannelSetup } from './views/setup/index';
+import { mountSweepView } from './views/sweep/index';
+import { mountTradeoff } from './views/tradeoff/index';
+import { ComputeClient } from './workers/client';
 import 'uplot/dist/uPlot.min.css';
 
 const fmt = (n: number, digits: number) => n.toFixed(digits);
@@ -105,6 +109,33 @@ function analyzeOffline(samples: Float32Array, channels: string[], finish = true
   return { analysis: a.snapshot(), outA, outB };
 }
 
+/** Two views over one engine: Live (what the talker does now) and Sweep (level sweeps against the mask). */
+function viewSwitch(host: HTMLElement): { live: HTMLElement; sweep: HTMLElement } {
+  const live = h('div', { class: 'view', 'data-testid': 'view-live' });
+  const sweep = h('div', { class: 'view', 'data-testid': 'view-sweep', hidden: true });
+  const tabs = (['live', 'sweep'] as const).map((name) => {
+    const b = h(
+      'button',
+      {
+        type: 'button',
+        class: 'view-tab',
+        'data-testid': `view-tab-${name}`,
+        'aria-pressed': String(name === 'live'),
+      },
+      name === 'live' ? 'Live' : 'Sweep',
+    );
+    b.addEventListener('click', () => {
+      live.hidden = name !== 'live';
+      sweep.hidden = name !== 'sweep';
+      for (const t of tabs) t.setAttribute('aria-pressed', String(t === b));
+      window.dispatchEvent(new Event('resize')); // charts take their new box size
+    });
+    return b;
+  });
+  host.append(h('nav', { class: 'view-tabs', 'aria-label': 'Views' }, ...tabs), live, sweep);
+  return { live, sweep };
+}
+
 /** `?record=SECONDS` keeps that much of the received input in the worklet, for tests. */
 function recordSeconds(): number {
   const v = Number(new URLSearchParams(location.search).get('record') ?? 0);
@@ -122,8 +153,13 @@ async function main(): Promise<void> {
   };
   const layout = pageLayout(root);
   layout.sidebar.append(enginePanel(engine));
-  mountLive(layout.main, { engine });
-  layout.main.append(presetPanel());
+  const compute = new ComputeClient();
+  const views = viewSwitch(layout.main);
+  mountChannelSetup(views.live, { engine, compute });
+  mountLive(views.live, { engine });
+  mountTradeoff(views.live, { engine, compute });
+  views.live.append(presetPanel());
+  mountSweepView(views.sweep, { engine, compute });
   const info = await pickBridge().appInfo();
   const shell = document.querySelector<HTMLElement>('[data-testid="shell-info"]');
   if (shell) {

@@ -145,8 +145,9 @@ export const SWEEP_FLOOR_DB = -100;
 export const SWEEP_CEILING_DB = 200;
 
 function ratioDb(signal: number, noise: number): number {
-  if (!(noise > 0)) return SWEEP_CEILING_DB;
+  // A silent output has no signal to speak of, even when it has no distortion either.
   if (!(signal > 0)) return SWEEP_FLOOR_DB;
+  if (!(noise > 0)) return SWEEP_CEILING_DB;
   const db = 10 * Math.log10(signal / noise);
   return db < SWEEP_FLOOR_DB ? SWEEP_FLOOR_DB : db > SWEEP_CEILING_DB ? SWEEP_CEILING_DB : db;
 }

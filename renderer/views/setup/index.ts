@@ -1,0 +1,2 @@
+// The channel setup for A and B.
+export { mountChannelSetup, type ChannelSetupOptions } from './channel-setup';

@@ -1,0 +1,2 @@
+// The Sweep view.
+export { mountSweepView, type SweepViewOptions } from './sweep-view';

@@ -1,0 +1,2 @@
+// The trade-off panel.
+export { mountTradeoff, type TradeoffOptions } from './tradeoff-panel';
