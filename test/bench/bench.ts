@@ -14,6 +14,7 @@ import './figures-measure';
 import './figures-analysis';
 import './figures-cli';
 import './figures-offline-render';
+import './figures-frame-time';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 

@@ -2,89 +2,26 @@
 // Chromium (channel worklet: Reference, A = G.711 mu-law, B = G.711 A-law, every
 // accumulator) as a real-time factor, against the bare graph without the worklet
 // (source -> gain -> destination) rendered in the same browser in the same run.
-//
-// The bench runs in Node and its figures are synchronous, so the browser runs in a
-// child process: a loopback server for the built renderer (dist/renderer, with the
-// isolation headers the page expects), Debian's Chromium through playwright-core.
-import { execFileSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { runInPage } from './chromium-page';
 import { registerFigure } from './harness';
 
-// As test/browser/chromium.ts (the bench may not import the tests): Debian's Chromium, never a download.
-const CHROMIUM_PATH = process.env.QUANTISCOPE_CHROMIUM ?? '/usr/bin/chromium';
-const CHROMIUM_FLAGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--autoplay-policy=no-user-gesture-required',
-];
-
-const CHILD = String.raw`
-import http from 'node:http';
-import { readFile } from 'node:fs/promises';
-import path from 'node:path';
-const [root, exe, flags] = JSON.parse(process.argv[1]);
-const types = { '.html': 'text/html', '.js': 'text/javascript', '.css': 'text/css', '.map': 'application/json' };
-const server = http.createServer(async (req, res) => {
-  const rel = decodeURIComponent(new URL(req.url, 'http://127.0.0.1').pathname);
-  const file = path.join(root, rel.endsWith('/') ? rel + 'index.html' : rel);
-  if (!file.startsWith(root)) { res.writeHead(403).end(); return; }
-  try {
-    const body = await readFile(file);
-    res.writeHead(200, {
-      'content-type': types[path.extname(file)] ?? 'application/octet-stream',
-      'cross-origin-opener-policy': 'same-origin',
-      'cross-origin-embedder-policy': 'require-corp',
-    });
-    res.end(body);
-  } catch { res.writeHead(404).end(); }
-});
-await new Promise((r) => server.listen(0, '127.0.0.1', r));
-const { chromium } = await import('playwright-core');
-const browser = await chromium.launch({ executablePath: exe, headless: true, args: flags });
-try {
-  const page = await browser.newPage();
-  await page.goto('http://127.0.0.1:' + server.address().port + '/');
-  await page.waitForSelector('body[data-ready="true"]', { timeout: 20000 });
-  const r = await page.evaluate(async () => {
-    // 60 s of seeded noise at -20 dBFS-ish: the graph's cost does not depend on the content.
-    const n = 60 * 48000;
-    const x = new Float32Array(n);
-    let s = 12345;
-    for (let i = 0; i < n; i++) { s = (s * 16807) % 2147483647; x[i] = (s / 2147483647 - 0.5) * 0.2; }
-    const q = window.quantiscope;
-    const full = await q.renderOffline(x, { a: 'g711-mu', b: 'g711-a' }, { record: false });
-    const bare = await q.renderOffline(x, undefined, { worklet: false, record: false });
-    return { full: full.realTimeFactor, bare: bare.realTimeFactor };
-  });
-  console.log(JSON.stringify(r));
-} finally {
-  await browser.close();
-  server.close();
-}
+const SCRIPT = `
+  // 60 s of seeded noise at -20 dBFS-ish: the graph's cost does not depend on the content.
+  const n = 60 * 48000;
+  const x = new Float32Array(n);
+  let s = 12345;
+  for (let i = 0; i < n; i++) { s = (s * 16807) % 2147483647; x[i] = (s / 2147483647 - 0.5) * 0.2; }
+  const q = window.quantiscope;
+  const full = await q.renderOffline(x, { a: 'g711-mu', b: 'g711-a' }, { record: false });
+  const bare = await q.renderOffline(x, undefined, { worklet: false, record: false });
+  return { full: full.realTimeFactor, bare: bare.realTimeFactor };
 `;
 
 registerFigure({
   name: 'offline render 60 s in Chromium, full graph (Ref + G.711 mu and A)',
   unit: 'x real time',
   measure() {
-    const here = path.dirname(fileURLToPath(import.meta.url));
-    // Bundled, this module runs from dist/bench/; the build puts the page in dist/renderer/.
-    const root = path.resolve(here, '..', 'renderer');
-    const repo = path.resolve(here, '..', '..');
-    if (!existsSync(path.join(root, 'index.html')))
-      throw new Error(`no built renderer in ${root}: run the build`);
-    const out = execFileSync(
-      process.execPath,
-      ['--input-type=module', '-e', CHILD, JSON.stringify([root, CHROMIUM_PATH, CHROMIUM_FLAGS])],
-      { cwd: repo, encoding: 'utf8', timeout: 300_000 },
-    );
-    const r = JSON.parse(out.trim().split('\n').pop()!) as { full: number; bare: number };
+    const r = runInPage<{ full: number; bare: number }>(SCRIPT);
     return {
       value: r.full,
       reference: { name: 'bare graph without the worklet', value: r.bare, unit: 'x real time' },
