@@ -156,7 +156,7 @@ async function main(): Promise<void> {
   const compute = new ComputeClient();
   const views = viewSwitch(layout.main);
   mountChannelSetup(views.live, { engine, compute });
-  mountLive(views.live, { engine });
+  mountLive(views.live, { engine, compute });
   mountTradeoff(views.live, { engine, compute });
   views.live.append(presetPanel());
   mountSweepView(views.sweep, { engine, compute });

@@ -2,7 +2,10 @@
 // and, when no worker can be started, in the page.
 import { DEFAULT_CANDIDATES, designLloydMax, recommend, talkerDensity } from '../../core/design/index';
 import { formatStage, parseChannel } from '../../core/spec/index';
+import { createQuantizer } from '../../core/quantizers/index';
 import { runSweep } from '../../core/sweep/index';
+import { quantizerSnrCurve } from '../../core/theory/index';
+import { dbovFromDbm0 } from '../../core/units/levels';
 import type { ComputeRequest, ComputeResults, DesignResult, RecommendResult } from './protocol';
 
 function design(r: Extract<ComputeRequest, { kind: 'design' }>): DesignResult {
@@ -67,5 +70,10 @@ export function handleCompute(r: ComputeRequest): ComputeResults[ComputeRequest[
       return design(r);
     case 'recommend':
       return recommendFor(r);
+    case 'theory': {
+      const q = createQuantizer(parseChannel(r.channel).stages[0]);
+      const levels = r.levelsDbm0.map((l) => dbovFromDbm0(l, q.loadCapacityDbm0));
+      return Array.from(quantizerSnrCurve(q, 'laplacian', levels).snrDb);
+    }
   }
 }

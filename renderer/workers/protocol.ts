@@ -28,7 +28,14 @@ export interface RecommendRequest {
   channels: string[];
 }
 
-export type ComputeRequest = SweepRequest | DesignRequest | RecommendRequest;
+/** Exact SNR of a channel's first stage for a Laplacian talker at the given levels (dBm0). */
+export interface TheoryRequest {
+  kind: 'theory';
+  channel: string;
+  levelsDbm0: number[];
+}
+
+export type ComputeRequest = SweepRequest | DesignRequest | RecommendRequest | TheoryRequest;
 
 export interface DesignResult {
   /** Stage text of the designed table quantizer (options and rate left to the form). */
@@ -46,6 +53,8 @@ export interface ComputeResults {
   sweep: SweepResult[];
   design: DesignResult;
   recommend: RecommendResult;
+  /** SNR in dB per level (NaN where undefined). */
+  theory: number[];
 }
 
 export type ToCompute = ComputeRequest & { id: number };

@@ -4,6 +4,7 @@ import type { SweepResult } from '../../../core/sweep/sweep';
 import type { AudioEngine } from '../../audio/engine';
 import { h } from '../../dom';
 import { ledgerPanel } from './ledger';
+import { ComputeClient } from '../../workers/client';
 import { levelSnrPanel } from './level-snr';
 import { levelSpreadPanel } from './level-spread';
 import { listenBar } from './listen';
@@ -21,9 +22,12 @@ export interface LiveView {
 /** Performance measure name around each frame's drawing (for the bench). */
 export const DRAW_MEASURE = 'qs-live-draw';
 
-export function mountLive(container: HTMLElement, deps: { engine: AudioEngine }): LiveView {
+export function mountLive(
+  container: HTMLElement,
+  deps: { engine: AudioEngine; compute?: ComputeClient },
+): LiveView {
   const { engine } = deps;
-  const levelSnr = levelSnrPanel();
+  const levelSnr = levelSnrPanel(deps.compute ?? new ComputeClient());
   const panels: LivePanel[] = [
     levelSpreadPanel(),
     ledgerPanel(),

@@ -7,14 +7,15 @@ import type { SweepResult } from '../../../core/sweep/sweep';
 import { axis, liveChart, stroke, withUnit } from '../charts';
 import { ChannelHistory, GRID_MIN_DBM0, GRID_POINTS } from './history';
 import { panelBox, type LivePanel } from './panel';
-import { firstStage, theoryOnGrid } from './theory';
+import type { ComputeClient } from '../../workers/client';
 
 export interface LevelSnrPanel extends LivePanel {
   showSweep(result: SweepResult | null): void;
   setMask(mask: Mask): void;
 }
 
-export function levelSnrPanel(): LevelSnrPanel {
+/** Theory curves come from the compute worker: 65536-cell uniform tables take a while. */
+export function levelSnrPanel(compute: ComputeClient): LevelSnrPanel {
   const { el, body } = panelBox('panel-level-snr', 'Level / SNR curve');
   const x = Float64Array.from({ length: GRID_POINTS }, (_, i) => GRID_MIN_DBM0 + i);
   // theory A, theory B, measured A, measured B, sweep, mask
@@ -84,15 +85,20 @@ export function levelSnrPanel(): LevelSnrPanel {
     for (let i = 0; i < GRID_POINTS; i++) ys[5][i] = maskLimitAt(mask, x[i]);
   };
   setMask(G712_SINE_MASK);
-  let theoryTimer = 0;
+  const asked = ['', ''];
   const theoryFor = (c: number, text: string) => {
     ys[c].fill(null);
-    // Heavy for wide uniform quantizers (65536 cells): kept off the snapshot's frame.
-    theoryTimer = window.setTimeout(() => {
-      const snr = theoryOnGrid(firstStage(text));
-      for (let i = 0; i < GRID_POINTS; i++) ys[c][i] = Number.isFinite(snr[i]) ? snr[i] : null;
-      el.dataset.theory = String(Number(el.dataset.theory ?? 0) + 1);
-    }, 0);
+    asked[c] = text;
+    compute
+      .run({ kind: 'theory', channel: text, levelsDbm0: Array.from(x) })
+      .then((snr) => {
+        if (asked[c] !== text) return; // the channel changed again meanwhile
+        for (let i = 0; i < GRID_POINTS; i++) ys[c][i] = Number.isFinite(snr[i]) ? snr[i] : null;
+        el.dataset.theory = String(Number(el.dataset.theory ?? 0) + 1);
+      })
+      .catch(() => {
+        // A refused channel has no curve; the setup form says why.
+      });
   };
   return {
     el,
@@ -124,7 +130,6 @@ export function levelSnrPanel(): LevelSnrPanel {
         }
         if (c === 0) el.dataset.lowestLiveDbm0 = lowest < 0 ? '' : String(x[lowest]);
       }
-      void theoryTimer;
       chart.plot.setData([x, ...ys]);
     },
   };

@@ -1,22 +1,10 @@
-// Theory for the Level/SNR curve and the transfer curve, once per channel change:
-// exact SNR of the first stage for a Laplacian talker (speech-like density) on the
-// page's dBm0 grid, and the effective compressor of any quantizer from its table.
+// The transfer curve's theory, once per channel change: the effective compressor of
+// any quantizer from its table. (The Level/SNR theory runs in the compute worker.)
 import { createQuantizer, type Quantizer } from '../../../core/quantizers/index';
 import { parseChannel } from '../../../core/spec/parse';
-import { quantizerSnrCurve } from '../../../core/theory/index';
-import { dbovFromDbm0 } from '../../../core/units/levels';
-import { GRID_MIN_DBM0, GRID_POINTS } from './history';
 
 export function firstStage(text: string): Quantizer {
   return createQuantizer(parseChannel(text).stages[0]);
-}
-
-/** SNR (dB) on the dBm0 grid GRID_MIN_DBM0 .. in 1 dB steps. */
-export function theoryOnGrid(q: Quantizer): Float64Array {
-  const levels = Float64Array.from({ length: GRID_POINTS }, (_, i) =>
-    dbovFromDbm0(GRID_MIN_DBM0 + i, q.loadCapacityDbm0),
-  );
-  return quantizerSnrCurve(q, 'laplacian', levels).snrDb;
 }
 
 /** Index of the cell holding x (decisions ascending; cell k is [d[k-1], d[k])). */
