@@ -126,56 +126,28 @@ export class FirDecimator extends BufferedDecimator {
   protected run(start: number, count: number, output: Float64Array, outStart: number): void {
     const p = this.pairs;
     // Pairs (w[i], w[L-1-i]), then the centre w[P]; symmetric, so the taps need no reversing.
-    foldedRun(
-      this.half,
-      p,
-      1,
-      2 * p,
-      this.half[p],
-      p,
-      this.buf,
-      start,
-      this.factor,
-      count,
-      output,
-      outStart,
-      1,
-    );
+    foldedRun(this.half, p, 1, 2 * p, p, this.buf, start, this.factor, count, output, outStart, 1);
   }
 }
 
 /** By 2, with a half-band filter: the zero taps cost nothing. */
 export class HalfbandDecimator extends BufferedDecimator {
-  /** h[0], h[2], ... h[2K - 2]: one of each symmetric pair of non-zero taps. */
+  /** h[0], h[2], ... h[2K - 2]: one of each symmetric pair of non-zero taps; then the centre h[2K - 1]. */
   private readonly even: Float64Array;
-  private readonly centre: number;
+  private readonly pairs: number;
 
   constructor(taps: Float64Array, maxInput: number) {
     super(taps, 2, maxInput);
     checkHalfband(taps);
     const k = (taps.length + 1) >> 2;
-    this.even = Float64Array.from({ length: k }, (_, i) => taps[2 * i]);
-    this.centre = taps[2 * k - 1];
+    this.pairs = k;
+    this.even = Float64Array.from({ length: k + 1 }, (_, i) => taps[i < k ? 2 * i : 2 * k - 1]);
   }
 
   protected run(start: number, count: number, output: Float64Array, outStart: number): void {
-    const k = this.even.length;
+    const k = this.pairs;
     // Pairs (w[2i], w[L-1-2i]) on the even phase, then the centre w[2K-1] alone on the odd one.
-    foldedRun(
-      this.even,
-      k,
-      2,
-      4 * k - 2,
-      this.centre,
-      2 * k - 1,
-      this.buf,
-      start,
-      2,
-      count,
-      output,
-      outStart,
-      1,
-    );
+    foldedRun(this.even, k, 2, 4 * k - 2, 2 * k - 1, this.buf, start, 2, count, output, outStart, 1);
   }
 }
 
@@ -243,8 +215,9 @@ export class HalfbandInterpolator implements Interpolator {
   readonly factor = 2;
   readonly length: number;
   readonly maxInput: number;
-  /** 2 h[0], 2 h[2], ... 2 h[2K - 2]: the even phase's taps, one of each pair. */
+  /** 2 h[0], 2 h[2], ... 2 h[2K - 2]: the even phase's taps, one of each pair; then 0 (it has no centre). */
   private readonly even: Float64Array;
+  private readonly pairs: number;
   private readonly centre: number;
   /** [2K - 1 history | up to maxInput new samples]. */
   private readonly buf: Float64Array;
@@ -256,7 +229,8 @@ export class HalfbandInterpolator implements Interpolator {
     this.length = taps.length;
     this.maxInput = maxInput;
     const k = (taps.length + 1) >> 2;
-    this.even = Float64Array.from({ length: k }, (_, i) => 2 * taps[2 * i]);
+    this.pairs = k;
+    this.even = Float64Array.from({ length: k + 1 }, (_, i) => (i < k ? 2 * taps[2 * i] : 0));
     this.centre = 2 * taps[2 * k - 1];
     this.buf = new Float64Array(2 * k - 1 + maxInput);
     this.inlet = this.buf.subarray(2 * k - 1);
@@ -275,13 +249,13 @@ export class HalfbandInterpolator implements Interpolator {
     outStart: number,
   ): void {
     if (n > this.maxInput) throw new RangeError(`interpolator: block of ${n} exceeds ${this.maxInput}`);
-    const k = this.even.length;
+    const k = this.pairs;
     const hist = 2 * k - 1;
     const buf = this.buf;
     if (input !== this.inlet || inStart !== 0) copyIn(input, inStart, n, this.inlet);
     // The window of block sample q is buf[q .. q + 2K), ending on the sample itself:
     // pairs (w[j], w[2K-1-j]), no centre (the even phase has an even length).
-    foldedRun(this.even, k, 1, 2 * k - 1, 0, 0, buf, 0, 1, n, output, outStart, 2);
+    foldedRun(this.even, k, 1, 2 * k - 1, 0, buf, 0, 1, n, output, outStart, 2);
     const c = this.centre;
     for (let q = 0; q < n; q++) output[outStart + 2 * q + 1] = c * buf[q + k];
     buf.copyWithin(0, n, n + hist);
@@ -342,7 +316,9 @@ function checkHalfband(taps: Float64Array): void {
 
 /**
  * out[o0 + j os] = sum_{i < pairs} g[i] (b[p + i ts] + b[p + span - i ts]) + c b[p + cAt]
- * with p = b0 + j stride, for j < count. Four outputs at a time share each tap load
+ * with p = b0 + j stride, for j < count, and the centre tap c = g[pairs]. The centre is
+ * read here, not passed: a double argument to a call not inlined is boxed, one
+ * allocation per block. Four outputs at a time share each tap load
  * and keep independent sums in flight (on this machine four beat eight: the folded
  * loop needs more registers). Every output is summed in the same order whichever
  * branch computes it, so the result does not depend on how the input was cut into
@@ -353,7 +329,6 @@ function foldedRun(
   pairs: number,
   ts: number,
   span: number,
-  c: number,
   cAt: number,
   b: Float64Array,
   b0: number,
@@ -363,6 +338,7 @@ function foldedRun(
   o0: number,
   os: number,
 ): void {
+  const c = g[pairs];
   const d1 = stride;
   const d2 = 2 * stride;
   const d3 = 3 * stride;

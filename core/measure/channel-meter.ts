@@ -67,6 +67,8 @@ export class ChannelMeter {
   private readonly sig = new Float64Array(CHUNK);
   private readonly err = new Float64Array(CHUNK);
   private readonly seg = new Uint8Array(CHUNK);
+  /** A piece's signal and error energy, handed to the segmental meter. */
+  private readonly energies = new Float64Array(2);
   private n = 0;
   private overloads = 0;
   private signalEnergy = 0;
@@ -185,7 +187,9 @@ export class ChannelMeter {
         }
       }
       if (codes !== undefined && this.codeCount > 0) this.codes.add(codes, at, at + len);
-      segmental.addEnergy(s2, e2, len);
+      this.energies[0] = s2;
+      this.energies[1] = e2;
+      segmental.addEnergy(this.energies, len);
       if (own) this.signalSpectrum.add(sig, 0, len);
       this.errorSpectrum.add(err, 0, len);
       this.signalEnergy += s2;

@@ -73,6 +73,19 @@ export function emptySignalMeterSnapshot(): SignalMeterSnapshot {
 
 const dbOrNull = (ratio: number): number | null => (ratio > 0 ? 20 * Math.log10(ratio) : null);
 
+type SeldomMovingDb = 'peakDbov' | 'momentaryPeakDbov' | 'momentaryRmsDbov';
+
+/** into[key] = dbOrNull(ratio), leaving an equal number in place. */
+function storeDbIfMoved(into: SignalMeterSnapshot, key: SeldomMovingDb, ratio: number): void {
+  if (!(ratio > 0)) {
+    into[key] = null;
+    return;
+  }
+  const db = 20 * Math.log10(ratio);
+  const old = into[key];
+  if (old === null || old !== db) into[key] = db;
+}
+
 export class SignalMeter {
   readonly rate: number;
   readonly overloadPoint: number;
@@ -218,7 +231,10 @@ export class SignalMeter {
     into.minSample = n > 0 ? this.min : 0;
     into.rms = rms;
     into.dc = n > 0 ? this.sum / n : 0;
-    into.peakDbov = dbOrNull(peak / v);
+    // A double stored where null may also go is boxed, one allocation per store; the
+    // figures that seldom move (the peak since reset, the momentary ones between
+    // interval ends) are stored only when they change.
+    storeDbIfMoved(into, 'peakDbov', peak / v);
     into.rmsDbov = dbOrNull(rms / v);
     into.crestDb = rms > 0 ? 20 * Math.log10(peak / rms) : null;
     into.overloadCount = this.overloads;
@@ -227,8 +243,8 @@ export class SignalMeter {
     into.longestClippedRun = Math.max(this.longest, open);
     into.momentaryPeak = this.lastPeak;
     into.momentaryRms = Math.sqrt(this.lastMeanSq);
-    into.momentaryPeakDbov = dbOrNull(this.lastPeak / v);
-    into.momentaryRmsDbov = dbOrNull(Math.sqrt(this.lastMeanSq) / v);
+    storeDbIfMoved(into, 'momentaryPeakDbov', this.lastPeak / v);
+    storeDbIfMoved(into, 'momentaryRmsDbov', Math.sqrt(this.lastMeanSq) / v);
     return into;
   }
 }

@@ -107,20 +107,47 @@ export function emptySegmentalSnapshot(traceFrames = 500): SegmentalSnapshot {
  * in the layout above (linear inside a bin), or null for an empty distribution.
  */
 export function distributionPercentile(distribution: Float64Array, p: number): number | null {
+  ONE_SHARE[0] = p;
+  percentilesInto(distribution, ONE_SHARE, ONE_PERCENTILE);
+  const v = ONE_PERCENTILE[0];
+  return Number.isNaN(v) ? null : v;
+}
+
+// Scratch for distributionPercentile (one realm, one thread: shared safely).
+const ONE_SHARE = new Float64Array(1);
+const ONE_PERCENTILE = new Float64Array(1);
+
+/**
+ * distributionPercentile for each share ps[j] into out[j], NaN for an empty
+ * distribution. Results go to an array, not back as return values, since a double
+ * returned from a call that is not inlined is boxed.
+ */
+function percentilesInto(distribution: Float64Array, ps: Float64Array, out: Float64Array): void {
   let total = 0;
   for (let b = 0; b < distribution.length; b++) total += distribution[b];
-  if (total <= 0) return null;
-  const rank = Math.min(1, Math.max(0, p)) * total;
-  let below = 0;
-  for (let b = 0; b < distribution.length; b++) {
-    const c = distribution[b];
-    if (c > 0 && below + c >= rank) {
-      return FRAME_SNR_MIN_DB + (b + (rank - below) / c) * FRAME_SNR_BIN_DB;
+  for (let j = 0; j < ps.length; j++) {
+    if (total <= 0) {
+      out[j] = NaN;
+      continue;
     }
-    below += c;
+    const rank = Math.min(1, Math.max(0, ps[j])) * total;
+    let below = 0;
+    // Stored in each branch rather than joined in one variable: a module constant
+    // joined with a computed double makes V8 box the double.
+    out[j] = FRAME_SNR_MAX_DB;
+    for (let b = 0; b < distribution.length; b++) {
+      const c = distribution[b];
+      if (c > 0 && below + c >= rank) {
+        out[j] = FRAME_SNR_MIN_DB + (b + (rank - below) / c) * FRAME_SNR_BIN_DB;
+        break;
+      }
+      below += c;
+    }
   }
-  return FRAME_SNR_MAX_DB;
 }
+
+/** The shares behind a snapshot's p5Db, p50Db and p95Db. */
+const SNAPSHOT_SHARES = new Float64Array([0.05, 0.5, 0.95]);
 
 /** Share of counted frames whose SNR is at least `db` (bin resolution, linear inside a bin); null if empty. */
 export function distributionShareAtLeast(distribution: Float64Array, db: number): number | null {
@@ -145,9 +172,11 @@ export class SegmentalSnr {
   readonly traceFrames: number;
   private readonly silenceEnergy: number;
   // The clamp as plain numbers (+-Infinity when off): hot code reads only instance
-  // fields, so V8 keeps the frame arithmetic unboxed.
-  private readonly clampMin: number;
-  private readonly clampMax: number;
+  // fields, so V8 keeps the frame arithmetic unboxed. Given a double here, not left
+  // for the constructor: ES2022 class fields start as undefined, and a field that once
+  // held undefined is read as "any value", which made V8 box every clamped frame SNR.
+  private readonly clampMin: number = -Infinity;
+  private readonly clampMax: number = Infinity;
   private readonly traceFloor: number = TRACE_LEVEL_FLOOR_DBOV;
   private readonly binMin: number = FRAME_SNR_MIN_DB;
   private readonly binWidth: number = FRAME_SNR_BIN_DB;
@@ -164,6 +193,7 @@ export class SegmentalSnr {
   private min = Infinity;
   private max = -Infinity;
   private readonly distribution = new Float64Array(FRAME_SNR_BIN_COUNT);
+  private readonly percentiles = new Float64Array(SNAPSHOT_SHARES.length);
   private readonly traceSnr: Float32Array;
   private readonly traceLevel: Float32Array;
   private readonly traceFlag: Uint8Array;
@@ -238,16 +268,17 @@ export class SegmentalSnr {
   }
 
   /**
-   * Adds the signal and error energies of `length` samples summed by the caller, who
-   * keeps each call within one frame (length <= room); for callers that take the sums
-   * anyway in a pass of their own.
+   * Adds the signal and error energies (energies[0], energies[1]) of `length` samples
+   * summed by the caller, who keeps each call within one frame (length <= room); for
+   * callers that take the sums anyway in a pass of their own. The sums come in an
+   * array because doubles passed to a call that is not inlined are boxed.
    */
-  addEnergy(signalEnergy: number, errorEnergy: number, length: number): void {
+  addEnergy(energies: Float64Array, length: number): void {
     if (length > this.frameLength - this.frameFill) {
       throw new RangeError(`segmental: ${length} samples do not fit the ${this.room} left in the frame`);
     }
-    this.frameSignal += signalEnergy;
-    this.frameError += errorEnergy;
+    this.frameSignal += energies[0];
+    this.frameError += energies[1];
     this.frameFill += length;
     if (this.frameFill >= this.frameLength) this.closeFrame();
   }
@@ -320,11 +351,15 @@ export class SegmentalSnr {
       const mean = this.sum / m;
       into.meanDb = mean;
       into.stdDb = Math.sqrt(Math.max(0, this.sumSq / m - mean * mean));
-      into.minDb = this.min;
-      into.maxDb = this.max;
-      into.p5Db = this.percentile(0.05);
-      into.p50Db = this.percentile(0.5);
-      into.p95Db = this.percentile(0.95);
+      // Stored only when they move: a double where null may also go is boxed per store.
+      if (into.minDb !== this.min) into.minDb = this.min;
+      if (into.maxDb !== this.max) into.maxDb = this.max;
+      // Measured frames are all in the distribution, so none of these is NaN.
+      const pc = this.percentiles;
+      percentilesInto(this.distribution, SNAPSHOT_SHARES, pc);
+      into.p5Db = Math.min(this.max, Math.max(this.min, pc[0]));
+      into.p50Db = Math.min(this.max, Math.max(this.min, pc[1]));
+      into.p95Db = Math.min(this.max, Math.max(this.min, pc[2]));
     } else {
       into.meanDb = null;
       into.stdDb = null;

@@ -26,13 +26,15 @@ export class SegmentLedger {
 
   /** SNR of each segment into `out`: NaN where a segment has no samples, +Infinity where it has no error. */
   snrDb(out: Float64Array = new Float64Array(this.segmentCount)): Float64Array {
+    const counts = this.counts;
+    const signal = this.signalEnergy;
+    const error = this.errorEnergy;
     for (let s = 0; s < this.segmentCount; s++) {
-      out[s] =
-        this.counts[s] === 0
-          ? NaN
-          : this.errorEnergy[s] === 0
-            ? Infinity
-            : 10 * Math.log10(this.signalEnergy[s] / this.errorEnergy[s]);
+      // One store per branch: a conditional expression joining the NaN and Infinity
+      // constants with a computed double boxed every computed one.
+      if (counts[s] === 0) out[s] = NaN;
+      else if (error[s] === 0) out[s] = Infinity;
+      else out[s] = 10 * Math.log10(signal[s] / error[s]);
     }
     return out;
   }

@@ -82,6 +82,10 @@ run(1000, 2000, true);
 drain();
 gc();
 gc();
+/** Bytes in use in the young generation (where a scavenge would collect). */
+const young = (): number =>
+  v8.getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')!.space_used_size;
+const youngBefore = young();
 const before = v8.getHeapStatistics().used_heap_size;
 const snapshotsBefore = snapshots;
 let gcCount = 0;
@@ -94,6 +98,7 @@ run(3000, 10_000, true);
 await new Promise((r) => setTimeout(r, 50));
 observer.disconnect();
 const afterNoGc = v8.getHeapStatistics().used_heap_size;
+const youngAllocated = young() - youngBefore;
 gc();
 gc();
 const after = v8.getHeapStatistics().used_heap_size;
@@ -123,6 +128,7 @@ const bareAfter = v8.getHeapStatistics().used_heap_size;
 console.log(
   JSON.stringify({
     bareAllocated: bareAfter - bareBefore,
+    youngAllocated,
     before,
     afterNoGc,
     after,
