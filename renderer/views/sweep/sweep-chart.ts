@@ -1,6 +1,7 @@
 // The Level/SNR chart of a sweep: in-band figures of A and B, their exact theory
 // (wideband) where it exists, and the acceptance mask. Cursor values show in the legend.
 import uPlot from 'uplot';
+import { FittedChart } from '../fitted-chart';
 import { SWEEP_CEILING_DB, SWEEP_FLOOR_DB, maskLimitAt, type SweepResult } from '../../../core/sweep/index';
 
 /** Our own palette: A blue, B amber, theory lighter, mask grey. */
@@ -11,27 +12,9 @@ const drawn = (v: number | null) => (v === null || v <= SWEEP_FLOOR_DB || v >= S
 
 const dbValue = (_u: uPlot, v: number | null) => (v === null ? '—' : `${v.toFixed(1)} dB`);
 
-export class SweepChart {
-  private plot: uPlot | null = null;
-  private readonly resize: ResizeObserver;
-
-  constructor(private readonly host: HTMLElement) {
-    // The chart takes the host's width, so the host must not take the chart's (CSSOM, allowed by the CSP).
-    host.style.minWidth = '0';
-    host.style.overflow = 'hidden';
-    this.resize = new ResizeObserver(() => this.fit());
-    this.resize.observe(host);
-  }
-
-  private size(): { width: number; height: number } {
-    const width = Math.max(320, Math.floor(this.host.clientWidth));
-    return { width, height: Math.max(240, Math.min(480, Math.round(width * 0.4))) };
-  }
-
-  private fit(): void {
-    if (!this.plot) return;
-    const s = this.size();
-    if (s.width !== this.plot.width || s.height !== this.plot.height) this.plot.setSize(s);
+export class SweepChart extends FittedChart {
+  constructor(host: HTMLElement) {
+    super(host, 240, 480);
   }
 
   show(results: SweepResult[]): void {
@@ -95,11 +78,5 @@ export class SweepChart {
       data,
       this.host,
     );
-  }
-
-  destroy(): void {
-    this.resize.disconnect();
-    this.plot?.destroy();
-    this.plot = null;
   }
 }

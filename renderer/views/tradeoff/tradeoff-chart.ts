@@ -1,6 +1,7 @@
 // Bit rate against predicted share of active frames meeting the target, one point per
 // candidate channel, by family; A and B ringed; the required share as a line.
 import uPlot from 'uplot';
+import { FittedChart } from '../fitted-chart';
 import type { CandidateFamily, Recommendation } from '../../../core/design/index';
 
 const FAMILIES: readonly CandidateFamily[] = ['uniform', 'mu', 'a', 'g711', 'designed'];
@@ -25,27 +26,9 @@ const B_COLOR = '#c26a1b';
 const noPath = () => null;
 const pct = (_u: uPlot, v: number | null) => (v === null ? '—' : `${v.toFixed(1)} %`);
 
-export class TradeoffChart {
-  private plot: uPlot | null = null;
-  private readonly resize: ResizeObserver;
-
-  constructor(private readonly host: HTMLElement) {
-    // The chart takes the host's width, so the host must not take the chart's (CSSOM, allowed by the CSP).
-    host.style.minWidth = '0';
-    host.style.overflow = 'hidden';
-    this.resize = new ResizeObserver(() => this.fit());
-    this.resize.observe(host);
-  }
-
-  private size(): { width: number; height: number } {
-    const width = Math.max(320, Math.floor(this.host.clientWidth));
-    return { width, height: Math.max(220, Math.min(420, Math.round(width * 0.4))) };
-  }
-
-  private fit(): void {
-    if (!this.plot) return;
-    const s = this.size();
-    if (s.width !== this.plot.width || s.height !== this.plot.height) this.plot.setSize(s);
+export class TradeoffChart extends FittedChart {
+  constructor(host: HTMLElement) {
+    super(host, 220, 420);
   }
 
   show(r: Recommendation, highlight: number[], labels: string[]): void {
@@ -96,11 +79,5 @@ export class TradeoffChart {
       data,
       this.host,
     );
-  }
-
-  destroy(): void {
-    this.resize.disconnect();
-    this.plot?.destroy();
-    this.plot = null;
   }
 }
