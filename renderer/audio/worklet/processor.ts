@@ -287,7 +287,17 @@ export class ChannelProcessor extends AudioWorkletProcessor {
     this.frame += measured;
     this.sinceSnapshot += measured;
     if (this.finishAt >= 0 && !this.finished && this.frame >= this.finishAt) this.finish();
-    else if (this.sinceSnapshot >= this.snapshotEvery) this.post();
+    else if (this.sinceSnapshot >= this.snapshotEvery) {
+      const envelope = this.fillSnapshot();
+      // The output figures are written here, not in fillSnapshot(): that runs 25 times a
+      // second and may never be optimised, and there every double would be boxed.
+      if (envelope !== null) {
+        envelope.outputPeak = this.output.periodPeak;
+        envelope.limiterDb = 20 * Math.log10(this.output.periodMinGain);
+        this.output.resetPeriod();
+        this.port.postMessage(envelope, this.stage.pool.transferOf(envelope));
+      }
+    }
     return true;
   }
 
@@ -299,22 +309,19 @@ export class ChannelProcessor extends AudioWorkletProcessor {
     this.port.postMessage({ type: 'channels', a: next.a, b: next.b, latency: next.analyzer.path.latency });
   }
 
-  private post(): void {
+  /** A pooled envelope with the analysis and howl readout of this period, or null to skip it. */
+  private fillSnapshot(): SnapshotEnvelope | null {
     this.sinceSnapshot = 0;
     // The howl watch is read every period, posted or not, so 'ever' misses nothing.
     this.howl.read(this.finalHowl);
-    const pool = this.stage.pool;
-    const envelope: SnapshotEnvelope | null = pool.take();
+    const envelope: SnapshotEnvelope | null = this.stage.pool.take();
     // Every envelope still with the main thread: skip this one rather than allocate.
-    if (envelope === null) return;
+    if (envelope === null) return null;
     envelope.frame = this.frame;
     this.stage.analyzer.snapshot(envelope.analysis);
     envelope.howl.howling = this.finalHowl.howling;
     envelope.howl.frequencyHz = this.finalHowl.frequencyHz;
-    envelope.outputPeak = this.output.periodPeak;
-    envelope.limiterDb = 20 * Math.log10(this.output.periodMinGain);
-    this.output.resetPeriod();
-    this.port.postMessage(envelope, pool.transferOf(envelope));
+    return envelope;
   }
 
   private finish(): void {
