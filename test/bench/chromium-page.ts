@@ -6,9 +6,11 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
-// As test/browser/chromium.ts (the bench may not import the tests): Debian's Chromium, never a download.
-const CHROMIUM_PATH = process.env.QUANTISCOPE_CHROMIUM ?? '/usr/bin/chromium';
-const CHROMIUM_FLAGS = [
+// Debian's Chromium, never a download; the browser tests take these from here too (the bench may
+// not import the tests, the tests may use the bench's helpers).
+export const CHROMIUM_PATH = process.env.QUANTISCOPE_CHROMIUM ?? '/usr/bin/chromium';
+/** Flags that work headless as root on these machines (no GPU, no network services). */
+export const CHROMIUM_FLAGS = [
   '--no-sandbox',
   '--disable-gpu',
   '--no-first-run',

@@ -2,18 +2,9 @@
 import { existsSync } from 'node:fs';
 import { chromium, type Browser } from 'playwright-core';
 
-export const CHROMIUM_PATH = process.env.QUANTISCOPE_CHROMIUM ?? '/usr/bin/chromium';
+import { CHROMIUM_FLAGS, CHROMIUM_PATH } from '../bench/chromium-page';
 
-/** Flags that work headless as root on these machines (no GPU, no network services). */
-export const CHROMIUM_FLAGS = [
-  '--no-sandbox',
-  '--disable-gpu',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--autoplay-policy=no-user-gesture-required',
-];
+export { CHROMIUM_FLAGS, CHROMIUM_PATH };
 
 export async function launchChromium(): Promise<Browser> {
   if (!existsSync(CHROMIUM_PATH)) {

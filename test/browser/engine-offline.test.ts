@@ -7,6 +7,7 @@ import { Analyzer, type AnalysisSnapshot } from '../../core/analysis/analyzer';
 import { renderDemoTalker } from '../../core/signals/demo-talker';
 import { renderLevelSweep, renderTestNoise, renderTestTone } from '../../core/signals/test-signals';
 import { launchWith, PACK_TYPED, serveBuild, unpackTyped, type EngineSite } from './engine-page';
+import type { OfflineResult } from '../../renderer/audio/engine';
 
 const RATE = 48000;
 let site: EngineSite;
@@ -26,15 +27,7 @@ afterAll(async () => {
   await site?.close();
 });
 
-interface Rendered {
-  analysis: AnalysisSnapshot;
-  frames: number;
-  input: Float32Array;
-  outA: Float32Array;
-  outB: Float32Array;
-  realTimeFactor: number;
-  howlEver: boolean;
-}
+type Rendered = OfflineResult;
 
 async function renderInPage(
   samples: Float32Array,
