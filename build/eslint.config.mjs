@@ -1,6 +1,7 @@
 // ESLint flat config, run as `eslint -c build/eslint.config.mjs .` from the repository root.
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
+import layers from './eslint-layers.mjs';
 
 const nodeGlobals = {
   process: 'readonly',
@@ -28,5 +29,10 @@ export default tseslint.config(
         { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_' },
       ],
     },
+  },
+  {
+    // Arrows between layers point down only; the table is build/layers.mjs.
+    plugins: { layers },
+    rules: { 'layers/arrows': 'error' },
   },
 );

@@ -1,11 +1,14 @@
-// The house rules of DEVELOPERS.md / DESIGN.md "Layers": arrows point down only.
-// Source of the rules: the project's own design (common practice, no source).
+// The house rules of DEVELOPERS.md "Layers": arrows point down only. The scanner, the rule
+// table and the verdict live in build/layers.mjs, which the ESLint rule layers/arrows runs too.
+// Source of the rules: our own requirement (DEVELOPERS.md, "Layers"). Type-only means the
+// syntax TypeScript always erases: `import type` and `type` on every named specifier
+// (TypeScript 3.8 and 4.5 release notes, from memory).
 import { readdirSync, readFileSync, existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import ts from 'typescript';
 import { describe, expect, it } from 'vitest';
-import { layerOf, layerViolation, scanImports, type FoundImport } from './imports';
+import { layerOf, layerViolation, RULES, scanImports, type FoundImport } from '../../build/layers.mjs';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const SOURCE = /\.(ts|tsx|mts|cts|js|mjs|cjs)$/;
@@ -23,9 +26,10 @@ function listSources(dir: string): string[] {
 }
 
 const violationsIn = (rel: string, text: string) =>
-  scanImports(text, rel)
-    .map((imp) => layerViolation(rel, imp))
-    .filter((v): v is string => v !== null);
+  scanImports(text, rel).flatMap((imp) => {
+    const why = layerViolation(rel, imp);
+    return why === null ? [] : [`${rel}:${imp.line}: ${why}`];
+  });
 
 describe('import scanner', () => {
   // Triple-slash directives count only before the first statement, as in the compiler.
@@ -69,8 +73,42 @@ describe('import scanner', () => {
     );
   });
 
-  it('reports line numbers', () => {
-    expect(scanImports("\n\nimport x from 'y';")[0].line).toBe(3);
+  it('reports line numbers and the offsets of the whole import', () => {
+    const text = "\n\nimport x from 'y';";
+    const [found] = scanImports(text);
+    expect(found.line).toBe(3);
+    expect(text.slice(found.start, found.end)).toBe("import x from 'y';");
+  });
+
+  it.each([
+    ["import type { X } from './x';", true],
+    ["import type X from './x';", true],
+    ["import type * as X from './x';", true],
+    ["import { type X, type Y } from './x';", true],
+    ["export type { X } from './x';", true],
+    ["export { type X, type Y } from './x';", true],
+    ["export type * from './x';", true],
+    ["import type X = require('./x');", true],
+    ["type T = import('./x').T;", true],
+    ["let t: typeof import('./x');", true],
+    ['/// <reference types="x" />', true],
+    ["import { type X, Y } from './x';", false],
+    ["import X from './x';", false],
+    ["import X, { type Y } from './x';", false],
+    ["import * as X from './x';", false],
+    ["import { X } from './x';", false],
+    ["import {} from './x';", false],
+    ["import './x';", false],
+    ["export * from './x';", false],
+    ["export * as X from './x';", false],
+    ["export { X, type Y } from './x';", false],
+    ["import X = require('./x');", false],
+    ["const x = await import('./x');", false],
+    ["const x = require('./x');", false],
+  ])('%s -> type-only %s', (text, typeOnly) => {
+    const found = scanImports(text);
+    expect(found.map((i) => i.specifier)).toEqual([text.startsWith('///') ? 'x' : './x']);
+    expect(found[0].typeOnly).toBe(typeOnly);
   });
 });
 
@@ -107,9 +145,57 @@ describe('layer rules on sample files (the check can fail)', () => {
     ['main/main.ts', "import uPlot from 'uplot';", false],
     ['test/bench/bench.ts', "import { alaw } from 'alawmulaw';", true],
     ['test/bench/bench.ts', "import { h } from '../../renderer/dom';", false],
+    // Types-only arrows: the value import is reported, the same import written as a type is not.
+    ['test/bench/bench.ts', "import type { EngineState } from '../../renderer/audio/engine';", true],
+    ['test/bench/bench.ts', "import { type EngineState } from '../../renderer/audio/engine';", true],
+    [
+      'test/bench/bench.ts',
+      "import { type EngineState, AudioEngine } from '../../renderer/audio/engine';",
+      false,
+    ],
+    ['test/bench/bench.ts', "import { EngineState } from '../../renderer/audio/engine';", false],
+    ['test/bench/bench.ts', "import '../../renderer/audio/engine';", false],
+    ['test/bench/bench.ts', "export type { EngineState } from '../../renderer/audio/engine';", true],
+    ['test/bench/bench.ts', "export { EngineState } from '../../renderer/audio/engine';", false],
+    ['test/bench/bench.ts', "type S = import('../../renderer/audio/engine').EngineState;", true],
+    ['test/bench/bench.ts', "const e = await import('../../renderer/audio/engine');", false],
+    ['test/bench/bench.ts', "import type { Processor } from '../../renderer/audio/worklet/processor';", true],
+    ['test/bench/bench.ts', "import { run } from '../../main/cli/run';", false],
+    ['test/bench/bench.ts', "import type { CliIo } from '../../main/cli/run';", true],
+    // No types-only arrow where the table has none: a type import across is still refused.
+    ['core/a/x.ts', "import type { T } from '../../main/m';", false],
+    ['core/a/x.ts', "import type { T } from '../../renderer/r';", false],
+    ['core/a/x.ts', "import type { Buffer } from 'node:buffer';", false],
+    ['renderer/audio/worklet/p.ts', "import type { EngineState } from '../engine';", false],
+    ['renderer/app.ts', "import type { T } from '../main/m';", false],
+    ['main/main.ts', "import type { T } from '../renderer/r';", false],
+    ['main/main.ts', "import type { T } from '../test/bench/harness';", false],
+    ['test/bench/bench.ts', "import type { X } from '../core/y';", false],
   ];
   it.each(cases)('%s: %s -> allowed %s', (file, text, allowed) => {
     expect(violationsIn(file, text).length === 0).toBe(allowed);
+  });
+
+  it('names both layers and the rule in its message', () => {
+    const [value] = scanImports("import { h } from '../../renderer/dom';");
+    const why = layerViolation('test/bench/bench.ts', value) ?? '';
+    expect(why).toContain('bench may take only types from renderer');
+    expect(why).toContain(`[layer rule: bench takes values from core, bench; types only from renderer`);
+    const [across] = scanImports("import { m } from '../../main/m';");
+    expect(layerViolation('core/a/x.ts', across)).toBe(
+      'core may not import main (../../main/m) [layer rule: core takes values from core; packages fft.js; no Node builtins]',
+    );
+  });
+
+  it('leaves tests and tools unchecked, and no checked layer may import them', () => {
+    const [bench] = scanImports("import { h } from '../renderer/dom';");
+    expect(layerViolation('test/x.test.ts', bench)).toBeNull();
+    expect(layerViolation('build/x.mjs', bench)).toBeNull();
+    const reached = Object.values(RULES).flatMap((rule) => (rule ? [...rule.values, ...rule.types] : []));
+    expect(reached.length).toBeGreaterThan(0);
+    expect(reached).not.toContain('test');
+    expect(reached).not.toContain('build');
+    expect(reached).not.toContain('outside');
   });
 
   it('classifies paths into layers', () => {
@@ -154,9 +240,9 @@ describe('layers of this repository', () => {
       .flatMap((rel) =>
         scanImports(readFileSync(path.join(root, rel), 'utf8'), rel)
           .filter((i) => i.specifier.endsWith('core/bridge'))
-          .map((i) => ({ rel, kind: i.kind })),
+          .map((i) => ({ rel, kind: i.kind, typeOnly: i.typeOnly })),
       );
     expect(bridgeUsers.length).toBeGreaterThan(0);
-    for (const use of bridgeUsers) expect(use.kind).toBe('import');
+    for (const use of bridgeUsers) expect(use, use.rel).toMatchObject({ kind: 'import', typeOnly: true });
   });
 });

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildAll } from '../../build/build.mjs';
-import { scanImports } from '../house/imports';
+import { scanImports } from '../../build/layers.mjs';
 
 let out: string;
 const read = (rel: string) => readFile(path.join(out, rel), 'utf8');
