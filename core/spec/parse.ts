@@ -1,16 +1,22 @@
 // Reading the channel text form, for example `g711-mu`, `mu:255:8`, `uniform:12:rise,seg=10`,
-// `a:87.6:8@16k`, or a tandem `g711-mu>g711-a>g711-mu`. Every refusal names the bad part.
+// `a:87.6:8@16k`, `table:talker-lm-4` (a stored table), or a tandem `g711-mu>g711-a>g711-mu`.
+// Every refusal names the bad part.
 import { checkTable } from '../quantizers/table';
 import { ChannelSpecError } from './errors';
+import { TABLE_NAME, type TableLookup } from './tables';
 import { DEFAULT_RATE, type ChannelRate, type ChannelSpec, type StageOptions, type StageSpec } from './types';
 
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)(e[+-]?\d+)?$/i;
-const NAME = /^[a-z][a-z0-9_-]{0,31}$/i;
 const MAX_STAGES = 8;
+
+export interface ParseOptions {
+  /** Resolves `table:NAME`; without it a short table reference is refused. */
+  tables?: TableLookup;
+}
 
 export const CHANNEL_SYNTAX =
   'LAW[:PARAM...][,OPTION...][>LAW...][@RATE] with LAW one of g711-mu, g711-a, uniform:BITS[:tread|rise], ' +
-  'mu:MU:BITS, a:A:BITS, table:[NAME:]D1/D2/...:Y1/Y2/...; OPTION seg=N, ov=X, lc=DBM0 (zs for g711-mu); ' +
+  'mu:MU:BITS, a:A:BITS, table:NAME (a stored table), table:[NAME:]D1/D2/...:Y1/Y2/...; OPTION seg=N, ov=X, lc=DBM0 (zs for g711-mu); ' +
   'RATE 8k (default), 16k, 48k, native or Hz';
 
 function fail(part: string, why: string): never {
@@ -67,7 +73,27 @@ function parseOptions(parts: string[], law: string, allowZs: boolean, allowLevel
   return opts;
 }
 
-export function parseStage(text: string): StageSpec {
+/** The levels stored under `name`, checked as any table is; refused when unknown. */
+function storedLevels(name: string, tables: TableLookup | undefined) {
+  const found = tables?.(name);
+  if (found === undefined) {
+    fail(
+      name,
+      'no stored table of that name is known (import the tables file that holds it, ' +
+        'or give the levels in full: table:NAME:D1/D2/...:Y1/Y2/...)',
+    );
+  }
+  const decisions = found.decisions.slice();
+  const outputs = found.outputs.slice();
+  try {
+    checkTable(decisions, outputs);
+  } catch (e) {
+    fail(name, `the stored table is unusable: ${(e as Error).message.replace(/^table: /, '')}`);
+  }
+  return { decisions, outputs };
+}
+
+export function parseStage(text: string, options: ParseOptions = {}): StageSpec {
   const [head, ...optionParts] = text.trim().split(',');
   const [lawText, ...params] = head.split(':');
   const law = lawText.toLowerCase();
@@ -107,9 +133,17 @@ export function parseStage(text: string): StageSpec {
       return { law: 'a', a, bits, ...parseOptions(optionParts, 'a', false, true) };
     }
     case 'table': {
-      if (params.length < 2 || params.length > 3) fail(head, 'expected table:[NAME:]D1/D2/...:Y1/Y2/...');
+      // The short form names a stored table; the full form carries its levels and needs no lookup.
+      if (params.length === 1 && TABLE_NAME.test(params[0])) {
+        const name = params[0];
+        const levels = storedLevels(name, options.tables);
+        return { law: 'table', ...levels, ...parseOptions(optionParts, 'table', false, true), name };
+      }
+      if (params.length < 2 || params.length > 3)
+        fail(head, 'expected table:NAME or table:[NAME:]D1/D2/...:Y1/Y2/...');
       const name = params.length === 3 ? params[0] : undefined;
-      if (name !== undefined && !NAME.test(name)) fail(name, 'a table name is letters, digits, - and _');
+      if (name !== undefined && !TABLE_NAME.test(name))
+        fail(name, 'a table name is letters, digits, - and _');
       const decisions = parseList(params[params.length - 2], 'decision');
       const outputs = parseList(params[params.length - 1], 'output');
       try {
@@ -142,7 +176,7 @@ export function parseRate(text: string): ChannelRate {
   return hz;
 }
 
-export function parseChannel(text: string): ChannelSpec {
+export function parseChannel(text: string, options: ParseOptions = {}): ChannelSpec {
   const t = text.trim();
   if (t === '') throw new ChannelSpecError('', `empty channel specification (expected ${CHANNEL_SYNTAX})`);
   const at = t.split('@');
@@ -152,7 +186,7 @@ export function parseChannel(text: string): ChannelSpec {
   if (stageTexts.length > MAX_STAGES) fail(at[0], `at most ${MAX_STAGES} stages in tandem`);
   const stages = stageTexts.map((s) => {
     if (s.trim() === '') fail(at[0], 'a stage is empty (check the > signs)');
-    return parseStage(s);
+    return parseStage(s, options);
   });
   return { stages, rate };
 }

@@ -2,18 +2,24 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createQuantizer } from '../../core/quantizers/index';
 import {
+  bitsOfLevels,
   CHANNEL_PRESETS,
   ChannelSpecError,
   channelBitRate,
   formatChannel,
+  fullChannel,
   parseChannel,
+  shortChannel,
+  tableLookup,
   type ChannelSpec,
   type StageSpec,
+  type TableLookup,
+  type TableStage,
 } from '../../core/spec/index';
 
-function refusal(text: string): ChannelSpecError {
+function refusal(text: string, tables?: TableLookup): ChannelSpecError {
   try {
-    parseChannel(text);
+    parseChannel(text, { tables });
   } catch (e) {
     if (e instanceof ChannelSpecError) return e;
     throw e;
@@ -75,7 +81,7 @@ describe('channel specification text form', () => {
       ['g711-mu@8k@16k', 'g711-mu@8k@16k', /only one @RATE/],
       ['g711-mu>>g711-a', 'g711-mu>>g711-a', /a stage is empty/],
       ['table:1/x:1/2/3', 'x', /decision 2 must be a number/],
-      ['table:0', 'table:0', /expected table/],
+      ['table:0', 'table:0', /expected table:NAME or table/],
       ['table:0:1', '0:1', /needs 2 to 65536 output values/],
       ['table:1/0:0/1.5/3', '1/0:0/1.5/3', /decision 2 does not ascend/],
     ];
@@ -89,6 +95,60 @@ describe('channel specification text form', () => {
     expect(() => createQuantizer({ law: 'table', decisions: [1, 0], outputs: [0, 1.5, 3] })).toThrow(
       /decision 2 does not ascend/,
     );
+  });
+
+  // J. Max (1960), Gaussian, 2 bits (from memory), as in test/core/table.test.ts.
+  const MAX2 = { decisions: [-0.9816, 0, 0.9816], outputs: [-1.51, -0.4528, 0.4528, 1.51] };
+  const MAX2_TEXT = 'table:max2:-0.9816/0/0.9816:-1.51/-0.4528/0.4528/1.51';
+  const stored = tableLookup([{ name: 'max2', bits: 2, ...MAX2 }]);
+
+  it('reads table:NAME through a lookup into the full table stage, options and rate kept', () => {
+    const spec = parseChannel('table:max2,seg=6,ov=2@16k', { tables: stored });
+    expect(spec).toEqual({
+      stages: [{ law: 'table', name: 'max2', ...MAX2, segments: 6, overloadPoint: 2 }],
+      rate: 16000,
+    });
+    // The short form prints only when asked; the default carries every level.
+    expect(formatChannel(spec, { short: true })).toBe('table:max2,seg=6,ov=2@16k');
+    expect(formatChannel(spec)).toBe(`${MAX2_TEXT},seg=6,ov=2@16k`);
+    // The full text needs no lookup and reads back to the same channel.
+    expect(parseChannel(formatChannel(spec))).toEqual(spec);
+    expect(parseChannel('g711-mu>table:max2', { tables: stored }).stages[1]).toEqual({
+      law: 'table',
+      name: 'max2',
+      ...MAX2,
+    });
+    expect(shortChannel(MAX2_TEXT)).toBe('table:max2');
+    expect(fullChannel('table:max2@8k', stored)).toBe(MAX2_TEXT);
+    // The lookup's arrays are copied, not shared with the channel.
+    const stage = spec.stages[0] as TableStage;
+    stage.outputs[0] = 0;
+    expect(parseChannel('table:max2', { tables: stored }).stages[0]).toMatchObject(MAX2);
+  });
+
+  it('refuses an unknown table name, naming it, with or without a lookup', () => {
+    for (const tables of [undefined, stored]) {
+      const e = refusal('g711-mu>table:talker-9,seg=4', tables);
+      expect(e.part).toBe('talker-9');
+      expect(e.message).toMatch(/"talker-9": no stored table of that name is known/);
+      expect(e.message).toMatch(/import the tables file that holds it, or give the levels in full/);
+    }
+    // Names match exactly, case included.
+    expect(refusal('table:MAX2', stored).part).toBe('MAX2');
+    // A lookup handing back unusable levels is refused as any bad table is.
+    const broken: TableLookup = () => ({ decisions: [1, 0], outputs: [0, 1.5, 3] });
+    const e = refusal('table:odd', broken);
+    expect(e.part).toBe('odd');
+    expect(e.message).toMatch(/decision 2 does not ascend/);
+  });
+
+  it('takes the full form as written, whatever the lookup holds under its name', () => {
+    const other = tableLookup([{ name: 'max2', bits: 1, decisions: [0], outputs: [-1, 1] }]);
+    expect(parseChannel(MAX2_TEXT, { tables: other })).toEqual(parseChannel(MAX2_TEXT));
+    expect(parseChannel(MAX2_TEXT).stages[0]).toEqual({ law: 'table', name: 'max2', ...MAX2 });
+    // An unnamed table has no short form: it prints in full even when asked.
+    const bare = parseChannel('table:0:-1/1');
+    expect(formatChannel(bare, { short: true })).toBe('table:0:-1/1');
   });
 
   const stage: fc.Arbitrary<StageSpec> = fc.oneof(
@@ -118,13 +178,60 @@ describe('channel specification text form', () => {
     }),
   );
 
-  it('parse(format(spec)) gives the spec back (property test, fast-check)', () => {
+  // Tables: ascending outputs on a 1/1024 grid (exact in binary), each decision the midpoint
+  // of its two outputs, so every output lies inside its own cell as checkTable requires.
+  const table: fc.Arbitrary<TableStage> = fc
+    .record(
+      {
+        steps: fc.array(fc.integer({ min: 1, max: 4000 }), { minLength: 2, maxLength: 17 }),
+        shift: fc.integer({ min: -40000, max: 40000 }),
+        named: fc.boolean(),
+        segments: fc.integer({ min: 1, max: 64 }),
+      },
+      { requiredKeys: ['steps', 'shift', 'named'] },
+    )
+    .map(({ steps, shift, named, segments }) => {
+      let at = shift;
+      const outputs = steps.map((d) => (at += d) / 1024);
+      const decisions = outputs.slice(1).map((y, i) => (outputs[i] + y) / 2);
+      const t: TableStage = { law: 'table', decisions, outputs };
+      if (named) t.name = 'pending';
+      if (segments !== undefined) t.segments = segments;
+      return t;
+    });
+
+  it('parse(format(spec)) gives the spec back, in full and in the short form (property test, fast-check)', () => {
     const rate = fc.oneof(fc.constant<ChannelSpec['rate']>('native'), fc.integer({ min: 1000, max: 384000 }));
     fc.assert(
-      fc.property(fc.array(stage, { minLength: 1, maxLength: 4 }), rate, (stages, r) => {
-        const spec: ChannelSpec = { stages, rate: r };
+      fc.property(fc.array(fc.oneof(stage, table), { minLength: 1, maxLength: 4 }), rate, (stages, r) => {
+        // Each named table gets a name of its own, so one lookup holds them all.
+        const named = stages.map((s, k) =>
+          s.law === 'table' && s.name !== undefined ? { ...s, name: `t-${k}` } : s,
+        );
+        const spec: ChannelSpec = { stages: named, rate: r };
         const clean = JSON.parse(JSON.stringify(spec)) as ChannelSpec; // -0 and undefined keys normalised
+        // The default form carries every level, so it reads back with no lookup at all.
         expect(parseChannel(formatChannel(spec))).toEqual(clean);
+        const tables = tableLookup(
+          named.flatMap((s) =>
+            s.law === 'table' && s.name !== undefined
+              ? [
+                  {
+                    name: s.name,
+                    bits: bitsOfLevels(s.outputs.length),
+                    decisions: s.decisions,
+                    outputs: s.outputs,
+                  },
+                ]
+              : [],
+          ),
+        );
+        const short = formatChannel(spec, { short: true });
+        expect(parseChannel(short, { tables })).toEqual(clean);
+        // Without the lookup the short form of a named table is refused, never misread.
+        const hasNamed = named.some((s) => s.law === 'table' && s.name !== undefined);
+        if (hasNamed) expect(() => parseChannel(short)).toThrow(/no stored table of that name/);
+        else expect(short).toBe(formatChannel(spec));
       }),
       { numRuns: 2000 },
     );
