@@ -5,7 +5,7 @@
 // Band edges: the 8 kHz channel passes 0-3400 Hz (the voice band's upper edge) and
 // stops from 4600 Hz. Why 4600 and not 4000: after decimation to 8 kHz a component
 // at f in 4000-4600 Hz lands at 8000 - f, in 3400-4000 Hz, above the 300-3400 Hz
-// band issue 3 constrains, and the Reference goes through the same path, so no SNR
+// band our requirements constrain, and the Reference goes through the same path, so no SNR
 // figure counts it. Everything that could land in 0-3400 Hz (4600 Hz and up) is at
 // least 60 dB down. 4.6 kHz is also where PCM practice starts guarding against
 // aliasing (ITU-T G.712's discrimination against out-of-band input, from memory).
@@ -34,11 +34,11 @@
 // multiplies of the plain lowpass (32 kHz -> 16 kHz on the way to 8 kHz, say).
 import { designHalfband, designLowpass, type LowpassDesign } from './fir-design';
 
-/** The attenuation every stopband must reach (issue 3), dB. */
+/** The attenuation every stopband must reach, dB (our requirement; common practice, no source). */
 export const STOPBAND_REQUIRED_DB = 60;
 /** What the Kaiser formulas are asked for: the required figure plus a margin for their approximation. */
 export const STOPBAND_DESIGN_DB = 64;
-/** Passband ripple allowed on the 8 kHz path, dB peak to peak (issue 3). */
+/** Passband ripple allowed on the 8 kHz path, dB peak to peak (ours; common practice, no source). */
 export const PASSBAND_RIPPLE_ALLOWED_DB = 0.5;
 
 export interface ChannelBand {

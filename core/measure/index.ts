@@ -1,4 +1,4 @@
-// The measurement engine's accumulators and snapshots (issue 3), one import for callers.
+// The measurement engine's accumulators and snapshots, one import for callers.
 export * from './active-level';
 export * from './channel-meter';
 export * from './howl';

@@ -1,6 +1,6 @@
 // The bench harness: figures register here, each measures its own value and
 // a reference in the same run, and the runner prints them as a table or as
-// JSON. Later issues add figures with `registerFigure`.
+// JSON. A new figure registers itself with `registerFigure`.
 //
 // JSON output (`--json`): one array on stdout, each element
 //   { "name": string, "value": number, "unit": string,

@@ -1,6 +1,6 @@
 // Sources: the thresholds (ripple, stopband, SNR, alignment) are this project's requirements
-// (issue 3), held against measurements made independently of the code under test: the frequency
-// response as the DFT of the taps and the output as a direct-form convolution (the definitions of
+// (common practice, no source), held against measurements made independently of the code
+// under test: the frequency response as the DFT of the taps and the output as a direct-form convolution (the definitions of
 // an FIR filter, Oppenheim and Schafer, Discrete-Time Signal Processing, from memory), and the
 // polyphase identities of Crochiere and Rabiner, Multirate Digital Signal Processing (1983, from
 // memory). 1020 Hz is the reference test frequency of ITU-T O.6 / G.712 (from memory).
@@ -174,13 +174,13 @@ describe('half-band design (Kaiser window, cut off at a quarter of the rate)', (
   });
 });
 
-describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <= 0.5 dB over 300-3400 Hz)', () => {
-  // Ripple: max minus min of the gain in dB over the band (peak to peak); the requirement
-  // in issue 3, checked over 0-3400 Hz, which contains 300-3400 Hz.
+describe('voice-channel filters meet our requirements (stopband >= 60 dB; 8 kHz ripple <= 0.5 dB over 300-3400 Hz; common practice, no source)', () => {
+  // Ripple: max minus min of the gain in dB over the band (peak to peak); our requirement
+  // (common practice, no source), checked over 0-3400 Hz, which contains 300-3400 Hz.
   //
   // Why the 8 kHz stopband starts at 4600 Hz (rate-plan.ts): a component at f in
-  // 4000-4600 Hz lands at 8000 - f, in 3400-4000 Hz, above the 300-3400 Hz band issue 3
-  // constrains, and the Reference takes the same path, so no SNR counts it; all that
+  // 4000-4600 Hz lands at 8000 - f, in 3400-4000 Hz, above the 300-3400 Hz band our
+  // requirements constrain, and the Reference takes the same path, so no SNR counts it; all that
   // could land in 0-3400 Hz (from 4600 Hz up) must be >= 60 dB down. 4.6 kHz is also
   // where ITU-T G.712 starts its discrimination against out-of-band input (from memory).
   // The edges 3400 and 4600 are symmetric about 4000 Hz, so the 16k -> 8k stage is a
@@ -200,7 +200,7 @@ describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <=
     expect(p8.decimationLatency).toBe(s1.design.delay + 3 * s2.design.delay);
   });
 
-  it('every stage meets its own passband and stopband (issue 3 figures)', () => {
+  it('every stage meets its own passband and stopband (common practice, no source)', () => {
     for (const plan of [p8, p16]) {
       for (const s of plan.stages) {
         const d = s.design;
@@ -212,7 +212,7 @@ describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <=
     }
   });
 
-  it('8 kHz decimation chain: everything from 4600-24000 Hz is >= 60 dB down, so nothing lands in 0-3400 Hz above -60 dB; ripple of chain and round trip < 0.5 dB (issue 3)', () => {
+  it('8 kHz decimation chain: everything from 4600-24000 Hz is >= 60 dB down, so nothing lands in 0-3400 Hz above -60 dB; ripple of chain and round trip < 0.5 dB (common practice, no source)', () => {
     const [s1, s2] = p8.stages;
     // The second stage runs at 16 kHz, so its response repeats every 16 kHz of input frequency.
     const chain = (f: number) => magnitude(s1.design.taps, f, 48000) * magnitude(s2.design.taps, f, 16000);
@@ -234,7 +234,7 @@ describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <=
     expect(trip.max - trip.min).toBeLessThan(0.5);
   });
 
-  it('16 kHz path: passband to 7000 Hz, stopband from 8000 Hz at 60 dB or more (issue 3 figures)', () => {
+  it('16 kHz path: passband to 7000 Hz, stopband from 8000 Hz at 60 dB or more (common practice, no source)', () => {
     const d = p16.stages[0].design;
     expect([d.passHz, d.stopHz]).toEqual([7000, 8000]);
     const alias = rangeDb((f) => magnitude(d.taps, f, 48000), 8000, 24000, 8000);
@@ -243,7 +243,7 @@ describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <=
     expect(pass.max - pass.min).toBeLessThan(0.5);
   });
 
-  it('interpolators are the same filters with gain L: their impulse response is L h, so images are >= 60 dB down (issue 3)', () => {
+  it('interpolators are the same filters with gain L: their impulse response is L h, so images are >= 60 dB down (common practice, no source)', () => {
     for (const s of [...p8.stages, ...p16.stages]) {
       const taps = s.design.taps;
       const m = Math.ceil(taps.length / s.factor) + 2;
@@ -263,7 +263,7 @@ describe('voice-channel filters meet issue 3 (stopband >= 60 dB; 8 kHz ripple <=
     }
   });
 
-  it('8 kHz round trip: images of 0-4000 Hz at 8 kHz are >= 60 dB down from 4600 Hz up to 24 kHz; only 4000-4600 Hz, the mirror of 3400-4000 Hz, is not (issue 3)', () => {
+  it('8 kHz round trip: images of 0-4000 Hz at 8 kHz are >= 60 dB down from 4600 Hz up to 24 kHz; only 4000-4600 Hz, the mirror of 3400-4000 Hz, is not (common practice, no source)', () => {
     const [s1, s2] = p8.stages;
     // Interpolation response of the chain at 48 kHz: the half-band's (period 16 kHz) times the first stage's.
     const up = (f: number) => magnitude(s2.design.taps, f, 16000) * magnitude(s1.design.taps, f, 48000);

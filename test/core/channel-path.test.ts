@@ -1,6 +1,6 @@
 // Sources: the thresholds (ripple, stopband, SNR, alignment) are this project's requirements
-// (issue 3), held against measurements made independently of the code under test: the frequency
-// response as the DFT of the taps and the output as a direct-form convolution (the definitions of
+// (common practice, no source), held against measurements made independently of the code
+// under test: the frequency response as the DFT of the taps and the output as a direct-form convolution (the definitions of
 // an FIR filter, Oppenheim and Schafer, Discrete-Time Signal Processing, from memory), and the
 // polyphase identities of Crochiere and Rabiner, Multirate Digital Signal Processing (1983, from
 // memory). 1020 Hz is the reference test frequency of ITU-T O.6 / G.712 (from memory).
@@ -115,7 +115,7 @@ function testSignal(length: number, seed: number): Float64Array {
 
 const IRREGULAR = [1, 7, 128, 333, 2, 64, 5, 250, 3, 96];
 
-describe('channel path against a direct-form model (issue 3: equal within 1e-6, delayed by the declared latency)', () => {
+describe('channel path against a direct-form model (our requirement: equal within 1e-6, delayed by the declared latency)', () => {
   it('8 kHz and 16 kHz channels, irregular blocks: channel-rate Reference and every 48 kHz output', () => {
     const path = new ChannelPath({
       inputRate: 48000,
@@ -149,7 +149,7 @@ describe('channel path against a direct-form model (issue 3: equal within 1e-6, 
     expect(r.ref48).toEqual(r.refs48[0]);
   });
 
-  it('gives the same samples, to the last bit, for any block split (issue 3: blocks of 1, 7, 128, 333 ...; DESIGN.md: live and offline agree to the last bit)', () => {
+  it('gives the same samples, to the last bit, for any block split (our requirement: blocks of 1, 7, 128, 333 ... give the same result, so live and offline agree to the last bit)', () => {
     const x = testSignal(4000, 2);
     const split = runInBlocks(
       new ChannelPath({ inputRate: 48000, channels: ['g711-a', 'g711-a@16k'], maxBlock: 400 }),
@@ -197,7 +197,7 @@ describe('channel path against a direct-form model (issue 3: equal within 1e-6, 
 });
 
 describe('channel path: quantizer SNR and alignment', () => {
-  it('uniform:16 on a -10 dBov 1020 Hz tone through the 8 kHz path: SNR above 90 dB against the bypassed path (issue 3; 1020 Hz per ITU-T O.6 / G.712, from memory)', () => {
+  it('uniform:16 on a -10 dBov 1020 Hz tone through the 8 kHz path: SNR above 90 dB against the bypassed path (our requirement; 1020 Hz per ITU-T O.6 / G.712, from memory)', () => {
     const path = new ChannelPath({ inputRate: 48000, channels: ['uniform:16'], maxBlock: 128 });
     const n = 48000;
     const x = new Float64Array(n);
@@ -215,7 +215,7 @@ describe('channel path: quantizer SNR and alignment', () => {
     expect(snrDb(r.ref[0], r.out[0], from, to)).toBeLessThan(92.5);
   });
 
-  it('two 8 kHz channels, one 16 kHz and native: outputs track their Reference, and all References agree at 48 kHz (issue 3)', () => {
+  it('two 8 kHz channels, one 16 kHz and native: outputs track their Reference, and all References agree at 48 kHz (our requirement)', () => {
     const path = new ChannelPath({
       inputRate: 48000,
       channels: ['uniform:16', 'uniform:16:rise', 'uniform:16@16k', 'uniform:16@native'],
@@ -250,7 +250,7 @@ describe('channel path: quantizer SNR and alignment', () => {
     for (const c of [0, 2]) expect(snrDb(r.refs48[3], r.refs48[c], from, n)).toBeGreaterThan(45);
   });
 
-  it('a click comes out at the same sample in every 48 kHz output, for every decimation phase (issue 3)', () => {
+  it('a click comes out at the same sample in every 48 kHz output, for every decimation phase (our requirement)', () => {
     const path = new ChannelPath({
       inputRate: 48000,
       channels: ['uniform:16', 'uniform:16:rise', 'uniform:16@16k', 'uniform:16@native'],
@@ -274,7 +274,7 @@ describe('channel path: quantizer SNR and alignment', () => {
 describe('channel path: what reaches the 8 kHz channel from above its band', () => {
   // Why the stopband starts at 4600 Hz (core/channel/rate-plan.ts): after decimation to
   // 8 kHz a component at f in 4000-4600 Hz lands at 8000 - f, in 3400-4000 Hz, outside
-  // the 300-3400 Hz band issue 3 constrains (aliasing folds about 4000 Hz: sampling
+  // the 300-3400 Hz band our requirements constrain (aliasing folds about 4000 Hz: sampling
   // theorem, common practice, no source); from 4600 Hz up the path stops it >= 60 dB.
   const run = (hz: number) => {
     const path = new ChannelPath({ inputRate: 48000, channels: ['uniform:16'], maxBlock: 480 });
@@ -290,7 +290,7 @@ describe('channel path: what reaches the 8 kHz channel from above its band', () 
     return p / y.length;
   };
 
-  it('a 5000 Hz tone reaches the Reference >= 60 dB down (issue 3: stopband >= 60 dB)', () => {
+  it('a 5000 Hz tone reaches the Reference >= 60 dB down (our requirement: stopband >= 60 dB; common practice, no source)', () => {
     const { ref, inputPower } = run(5000);
     expect(10 * Math.log10(power(ref) / inputPower)).toBeLessThan(-60);
   });
@@ -319,7 +319,7 @@ describe('channel path: what reaches the 8 kHz channel from above its band', () 
 });
 
 describe('channel path: rates, stages, gain, buffers', () => {
-  it('input already at the channel rate goes to the quantizer untouched, with no latency (issue 3)', () => {
+  it('input already at the channel rate goes to the quantizer untouched, with no latency (our requirement)', () => {
     const path = new ChannelPath({
       inputRate: 8000,
       channels: ['g711-mu@8k', 'g711-a@native'],
@@ -334,7 +334,7 @@ describe('channel path: rates, stages, gain, buffers', () => {
     expect(r.out48[0]).toEqual(r.out[0]);
   });
 
-  it('tandem stages run in series at the channel rate (issue 3)', () => {
+  it('tandem stages run in series at the channel rate (our requirement)', () => {
     const path = new ChannelPath({
       inputRate: 48000,
       channels: ['mu:255:8>a:87.6:8>mu:255:8'],
@@ -409,7 +409,7 @@ describe('channel path: rates, stages, gain, buffers', () => {
     expect(path.atRate[2].first + path.atRate[2].length).toBe(Math.ceil((10100 * 128) / 3));
   });
 
-  it('analysis without listening skips the 48 kHz outputs but gives the same channel-rate samples (DESIGN.md: one source of truth per number)', () => {
+  it('analysis without listening skips the 48 kHz outputs but gives the same channel-rate samples (our requirement: one source of truth per number)', () => {
     const x = testSignal(3000, 7);
     const full = runInBlocks(
       new ChannelPath({ inputRate: 48000, channels: ['g711-a'], maxBlock: 256 }),
@@ -421,7 +421,7 @@ describe('channel path: rates, stages, gain, buffers', () => {
     expect(runInBlocks(quiet, x, [256]).out[0]).toEqual(full.out[0]);
   });
 
-  it('refuses rates the whole-factor path cannot reach and blocks beyond maxBlock (issue 3: integer-factor path; 44.1 kHz needs another resampler)', () => {
+  it('refuses rates the whole-factor path cannot reach and blocks beyond maxBlock (our requirement: integer-factor path; 44.1 kHz needs another resampler)', () => {
     expect(() => new ChannelPath({ inputRate: 44100, channels: ['g711-mu'], maxBlock: 128 })).toThrow(
       /44100/,
     );

@@ -77,7 +77,8 @@ function powerDb(y: Float64Array, from: number): number {
 describe('RationalResampler: accuracy', () => {
   // Sampling theorem: a band-limited tone resampled is the same tone sampled at the
   // new rate, delayed by the filter (Shannon 1949; polyphase rate conversion,
-  // Crochiere and Rabiner 1983; both from memory). Limits are issue 6's brief.
+  // Crochiere and Rabiner 1983; both from memory). The limits are our requirements
+  // (common practice, no source).
   it('44.1 kHz -> 48 kHz reduces to 160/147 and a 1 kHz tone matches the analytic tone below -80 dB', () => {
     const r = new RationalResampler(44100, 48000, 4096);
     // 48000/44100 = 160/147 (gcd 300; arithmetic).
@@ -113,7 +114,7 @@ describe('RationalResampler: accuracy', () => {
       const r = new RationalResampler(from, to, 4096);
       const y = convert(r, tone(f, from, 0.25));
       const { amplitude, residualDb } = fitTone(y, steady(r), f, to);
-      // Brief of issue 6: pass band flat within 0.1 dB (measured within 0.001 dB).
+      // Our requirement: pass band flat within 0.1 dB (measured within 0.001 dB).
       expect(Math.abs(20 * Math.log10(amplitude)), `${from} -> ${to} at ${f} Hz`).toBeLessThan(0.1);
       // And nothing else appears: images (up) or aliases (down) stay 80 dB down.
       expect(residualDb, `${from} -> ${to} at ${f} Hz`).toBeLessThan(-80);

@@ -41,7 +41,7 @@ const MAX_1960 = [
 
 describe('Lloyd-Max for the Gaussian', () => {
   it('reproduces J. Max (1960) for N = 1, 2, 3 (and 4) within 1e-3', () => {
-    // J. Max, IRE Trans. Inf. Theory IT-6, 1960, Table I (from memory). N = 1..3 as in issue 3;
+    // J. Max, IRE Trans. Inf. Theory IT-6, 1960, Table I (from memory): N = 1..3;
     // the 16-level row is recalled too.
     const d = gaussianDesignDensity(1);
     for (const row of MAX_1960) {
@@ -56,8 +56,9 @@ describe('Lloyd-Max for the Gaussian', () => {
   });
 
   it('builds a table stage that createQuantizer and the text form accept, with the predicted error', () => {
-    // The issue 2 table stage; the predicted MSE must be the exact theory of the built quantizer
-    // (core/theory) and what seeded Gaussian noise measures (law of large numbers, common practice).
+    // A table stage (DEVELOPERS.md, the channel text form); the predicted MSE must be the exact
+    // theory of the built quantizer (core/theory) and what seeded Gaussian noise measures (law
+    // of large numbers, common practice).
     const r = designLloydMax(gaussianDesignDensity(1), 3);
     expect(r.stage).toMatchObject({ law: 'table', name: 'lm-gaussian-3' });
     const q = createQuantizer(r.stage);
@@ -166,7 +167,7 @@ describe('Lloyd-Max from a measured level distribution', () => {
   });
 
   it('from the level-spread histogram in 0.5 dB bins of dBov', () => {
-    // The shape the level-spread meter keeps (issue 3: 0.5 dB bins from -96 dBov, overload bin).
+    // The shape the level-spread meter keeps (our convention: 0.5 dB bins from -96 dBov, overload bin).
     const d = densityFromDbov(dbovHistogramOf(x, 1), 1);
     for (const row of MAX_1960) expectMax(designLloydMax(d, row.bits).stage, row, 1e-2);
     const r8 = designLloydMax(d, 8);

@@ -25,7 +25,7 @@ describe('Panter-Dite compander', () => {
   });
 
   it('measures within 0.5 dB of 6.02 N - 4.35 dB on seeded Gaussian noise for N = 6..10', () => {
-    // Issue 3 check (Panter and Dite 1951, from memory). 2^17 samples: the error power is known
+    // Source: Panter and Dite 1951 (from memory). 2^17 samples: the error power is known
     // to about 0.5 percent (0.02 dB).
     const x = gaussianBlock(new Xoshiro128(5), 1 << 17, 0.05);
     const y = new Float64Array(x.length);

@@ -12,7 +12,7 @@ import type { StageSpec } from '../../core/spec/types';
 import { densityOf } from '../../core/theory/densities';
 import { theoryOf } from '../../core/theory/snr-curves';
 
-/** 20 ms at 8 kHz: the segmental-SNR frame of issue 3 (common practice). */
+/** 20 ms at 8 kHz: the segmental-SNR frame (common practice, no source). */
 const FRAME = 160;
 
 interface Talker {
@@ -85,8 +85,8 @@ function checkAgainstMeasurement(rec: Recommendation, t: Talker, expectBits: num
 
 describe('recommender on synthetic talkers', () => {
   it('Laplacian talker, -26 dBov +- 6 dB, 30 dB for 99 percent of frames', () => {
-    // Target and share as in issue 3. Codec tests align speech near -26 dBov and a talker's level
-    // varies by tens of dB (common practice, no source).
+    // Target and share: our requirement (30 dB for 99 percent of frames). Codec tests align
+    // speech near -26 dBov and a talker's level varies by tens of dB (common practice, no source).
     const t = talker(7, 1500, -26, 6, 'laplacian');
     const rec = recommend(frameLevelHistogram(t.frameLevelsDbov), { targetSnrDb: 30, share: 0.99 });
     expect(rec.frameShape).toBe('laplacian');
@@ -123,7 +123,7 @@ describe('recommendation as data', () => {
   );
 
   it('ranks by bit rate, shows margins, and picks the cheapest that meets the target', () => {
-    // Issue 3: rank by bit rate, show which meet and by what margin, pick the cheapest that meets.
+    // Our requirement: rank by bit rate, show which meet and by what margin, pick the cheapest that meets.
     expect(rec.candidates.length).toBe(9);
     for (let i = 1; i < rec.candidates.length; i++) {
       expect(rec.candidates[i].bitRate).toBeGreaterThanOrEqual(rec.candidates[i - 1].bitRate);
@@ -140,7 +140,7 @@ describe('recommendation as data', () => {
   });
 
   it('survives JSON unchanged', () => {
-    // The trade-off panel and the command line take it as JSON (issue 3).
+    // The trade-off panel and the command line take it as JSON (our requirement).
     expect(JSON.parse(JSON.stringify(rec))).toEqual(rec);
   });
 

@@ -17,7 +17,10 @@ export const A_BASE = [1, 33, 66, 132, 264, 528, 1056, 2112];
 export const MU_STEP = [2, 4, 8, 16, 32, 64, 128, 256];
 export const A_STEP = [2, 2, 4, 8, 16, 32, 64, 128];
 
-/** Factor from the G.711 uniform value to 16-bit linear (DESIGN.md: shift left by 2 / 3). */
+/**
+ * Factor from the G.711 uniform value to 16-bit linear: shift left by 2 / 3 (G.711 works on
+ * 14-bit mu-law and 13-bit A-law linear values, from memory).
+ */
 export const MU_TO_16 = 4;
 export const A_TO_16 = 8;
 

@@ -252,7 +252,8 @@ describe('G.711 section 3.2: mu-law all-zero suppression', () => {
     expect(linearToMuLaw(-d127 - 1, true)).toBe(0x02);
   });
 
-  // Source: G.711 section 3.2 (from memory), on the float scale of DESIGN.md (int16 / 32768).
+  // Source: G.711 section 3.2 (from memory), on our float scale (int16 / 32768, DEVELOPERS.md
+  // "Numbers and scales").
   it('the float quantizer with suppression never sends 0x00', () => {
     const q = createG711MuQuantizer({ zeroSuppression: true });
     expect(q.label).toBe('g711-mu,zs');
@@ -289,7 +290,8 @@ describe('G.711 float quantizers', () => {
   });
 
   for (const [name, q, int16Path] of quantizers) {
-    // Float <-> int16 by 32768 (DESIGN.md); the float path must match the integer codec.
+    // Float <-> int16 by 32768 (our convention, DEVELOPERS.md "Numbers and scales"); the float
+    // path must match the integer codec.
     it(`${name}: agrees with the int16 codec on every n / 32768`, () => {
       for (let n = -32768; n < 32768; n++) {
         const got = q.quantize(n / 32768);

@@ -66,7 +66,7 @@ describe('flat SNR over a talker range, 8 bits, Gaussian input, -50 to -15 dBov'
     Math.max(...m.map((r) => r.snrDb)) - Math.min(...m.map((r) => r.snrDb));
 
   it('continuous mu = 255 compander: SNR varies by less than 7 dB', () => {
-    // Issue 2: the flat-SNR property of mu-law companding (common practice, no source).
+    // The flat-SNR property of mu-law companding (common practice, no source).
     const m = measureLevels(createQuantizer({ law: 'mu', mu: 255, bits: 8 }), levels, 8, 21);
     expect(spread(m)).toBeLessThan(7);
   });

@@ -69,14 +69,15 @@ describe('measured SNR versus exact theory, Gaussian noise, -50 to -5 dBov', () 
   // precise, standard error about 0.1 dB; elsewhere under 0.03 dB.
   for (const spec of ['uniform:8', 'uniform:8:rise', 'mu:255:8', 'a:87.6:8']) {
     it(`${spec} within 0.5 dB`, () => {
-      // Exact theory: the error integrated over the quantizer's own cells (issue 2).
+      // Exact theory: the error integrated over the quantizer's own cells (Jayant and Noll
+      // 1984, from memory).
       expectAgreement(compare(createQuantizer(spec), 'gaussian', 32, 101), 0.5, 0.2, spec);
     });
   }
 
   for (const spec of ['g711-mu', 'g711-a']) {
     it(`${spec} within 0.2 dB, measured long enough to tell`, () => {
-      // G.711 predicted within 0.2 dB of measurement (issue 2). 2^23 samples (about 17 minutes
+      // Our requirement: G.711 predicted within 0.2 dB of measurement. 2^23 samples (about 17 minutes
       // at 8 kHz) per level keep the standard error, estimated here from 128 batches, at or
       // under 0.05 dB at every level (about 0.04 dB at -10 dBov where overloads are rare,
       // 0.005 dB below -15 dBov), so a miss of 0.2 dB is a fault of the theory, not chance.

@@ -7,8 +7,8 @@ import { fillSine } from '../../core/signals/tone';
 import { SineDensity } from '../../core/theory/densities';
 import { theoryOf } from '../../core/theory/snr-curves';
 
-// 997 Hz at 48 kHz for 10 s (issue 2): 997 is prime to 48000, so the samples visit 48000
-// distinct phases of the sine, ten times over.
+// 997 Hz (the audio test tone of AES17, from memory) at 48 kHz for 10 s: 997 is prime to
+// 48000, so the samples visit 48000 distinct phases of the sine, ten times over.
 const RATE = 48000;
 const FREQ = 997;
 const LENGTH = 10 * RATE;

@@ -3,7 +3,7 @@ import { createQuantizer, segmentEdgesDbov } from '../../core/quantizers/index';
 import { dbm0FromDbov, dbovFromDbm0, dbovFromRms, sineAmplitudeForDbm0 } from '../../core/units/levels';
 
 describe('level scales', () => {
-  it('a full-scale sine is -3.01 dBov and a square wave at the overload point 0 dBov (DESIGN.md definition of dBov)', () => {
+  it('a full-scale sine is -3.01 dBov and a square wave at the overload point 0 dBov (our definition of dBov, DEVELOPERS.md "Numbers and scales")', () => {
     expect(dbovFromRms(1 / Math.SQRT2, 1)).toBeCloseTo(-3.0103, 4);
     expect(dbovFromRms(0.5, 0.5)).toBe(0);
   });

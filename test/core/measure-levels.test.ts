@@ -55,7 +55,7 @@ describe('level histogram', () => {
   });
 
   it('bin edges: each sample lands in the bin its level in dB names', () => {
-    // Source: the bin layout of the issue, checked against Math.log10 (common practice, no source).
+    // Source: our bin layout (0.5 dB bins of dBov), checked against Math.log10 (common practice, no source).
     const rng = new Xoshiro128(5);
     const v = 0.8;
     const h = new LevelHistogram(v);
@@ -151,7 +151,7 @@ describe('per-code and per-segment occupancy', () => {
   });
 
   it('a quantizer with more than 256 codes keeps no per-code table; segments still add up', () => {
-    // Source: the issue (per-code occupancy for G.711); sums are plain counting (no source).
+    // Source: our requirement (per-code occupancy for G.711); sums are plain counting (no source).
     const q = createQuantizer('uniform:12');
     const y = new Float64Array(x.length);
     const segs = new Uint8Array(x.length);
@@ -277,7 +277,7 @@ describe('signal meter', () => {
   });
 
   it('silence: levels are null, not -Infinity', () => {
-    // Source: the issue's rule for figures without signal (common practice, no source).
+    // Source: our rule for figures without signal: null, never -Infinity (common practice, no source).
     const m = new SignalMeter({ rate: RATE });
     m.add(new Float64Array(1000));
     const s = m.snapshot();

@@ -88,7 +88,7 @@ describe('segmental SNR: frames, silence and clamps', () => {
   });
 
   it('clamps: a frame far beyond the range is held at the clamp; the speech-coder preset caps at 35 dB', () => {
-    // Source: per-frame clamps of the issue: default -10..+60 dB, speech-coder -10..+35 dB
+    // Source: our per-frame clamps: default -10..+60 dB, speech-coder -10..+35 dB
     // (common practice, no source).
     const fine = createQuantizer('uniform:16');
     const x = new Float64Array(rate);

@@ -116,7 +116,7 @@ describe('P.56 method B: steady noise and added silence', () => {
 
 describe('P.56: no speech', () => {
   it('silence reports null, never NaN or -Infinity', () => {
-    // Source: the issue's rule for silence (common practice, no source).
+    // Source: our rule for silence: null, never NaN (common practice, no source).
     const m = new ActiveLevelMeter({ rate: RATE });
     for (const r of [m.longTerm(), m.window()]) {
       expect(r.activeLevelDbov).toBeNull();
@@ -134,7 +134,7 @@ describe('P.56: no speech', () => {
   });
 
   it('the sliding window forgets: speech then 12 s of silence is "no speech" in the 10 s window', () => {
-    // Source: the issue's sliding window, default 10 s (common practice, no source).
+    // Source: our sliding window, default 10 s (common practice, no source).
     const m = new ActiveLevelMeter({ rate: RATE });
     run(m, [noise(5, 0.1, 3), new Float64Array(12 * RATE)]);
     const w = m.window();
@@ -146,7 +146,7 @@ describe('P.56: no speech', () => {
   });
 
   it('the window tracks a level change within one window length', () => {
-    // Source: ITU-T P.56 (from memory); window of 10 s (the issue).
+    // Source: ITU-T P.56 (from memory); window of 10 s (our default).
     const m = new ActiveLevelMeter({ rate: RATE, windowSeconds: 10 });
     run(m, [noise(15, 0.2, 4), noise(12, 0.02, 5)]);
     const w = speech(m.window());
@@ -164,7 +164,7 @@ describe('P.56: no speech', () => {
   });
 
   it('levels are relative to the overload point (dBov)', () => {
-    // Source: dBov definition, DESIGN.md (common practice, no source).
+    // Source: the dBov definition, DEVELOPERS.md "Numbers and scales" (common practice, no source).
     const v = (8159 * 4) / 32768;
     const t = new TalkerMeter({ rate: RATE, overloadPoint: v });
     t.add(noise(5, 0.1, 11));

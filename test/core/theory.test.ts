@@ -20,7 +20,7 @@ const BITS = [8, 9, 10, 11, 12, 13, 14, 15, 16];
 
 describe('levels', () => {
   it('puts a full-load sine at -3.01 dBov', () => {
-    // A sine whose peak is the overload point is -3.01 dBov (issue 2, DESIGN "Numbers and scaling";
+    // A sine whose peak is the overload point is -3.01 dBov (DEVELOPERS.md "Numbers and scales";
     // common practice, no source).
     const q = createQuantizer({ law: 'uniform', bits: 8, form: 'rise' });
     expect(theoryOf(q).evaluate(new SineDensity(q.overloadPoint)).levelDbov).toBeCloseTo(-3.01, 2);
@@ -92,9 +92,10 @@ describe('fine uniform quantization of Gaussian input', () => {
   });
 
   it('counts as overload whatever lies beyond a declared overload point, even inside the cells', () => {
-    // A table quantizer may declare its overload point inside its range (issue 2: "the others
-    // 1.0 unless set"). Fine cells keep step^2/12 on both sides (Widrow 1956, from memory), so the
-    // split follows P(|x| < V) for sigma = V: 0.682689492137086 (common practice, no source).
+    // A table quantizer may declare its overload point inside its range (our convention,
+    // DEVELOPERS.md: overload point 1.0 unless set with ov=). Fine cells keep step^2/12 on both
+    // sides (Widrow 1956, from memory), so the split follows P(|x| < V) for sigma = V:
+    // 0.682689492137086 (common practice, no source).
     const step = 2 / 2 ** 16;
     const k = (step * step) / 12;
     for (const form of ['rise', 'tread'] as const) {
@@ -143,8 +144,8 @@ describe('continuous-law theory', () => {
   });
 
   it('mu = 0 and A = 1 are the uniform quantizer', () => {
-    // mu-law with mu -> 0 and A-law with A = 1 reduce to the identity compressor (issue 2;
-    // common practice, no source).
+    // mu-law with mu -> 0 and A-law with A = 1 reduce to the identity compressor
+    // (common practice, no source).
     for (const level of [-50, -20, -3]) {
       const u = lawSnrAt({ law: 'uniform', bits: 8, form: 'rise' }, 'laplacian', level).snrDb;
       expect(lawSnrAt({ law: 'mu', mu: 0, bits: 8 }, 'laplacian', level).snrDb).toBeCloseTo(u, 10);

@@ -54,7 +54,7 @@ function sineShare(lo: number, hi: number, a: number): number {
 }
 
 describe('analyze --json', () => {
-  it('has the field names of the issue, one object per file', async () => {
+  it('has our documented field names, one object per file', async () => {
     const [r] = await analyzeJson(f('sine48.wav'), '-c', 'g711-a', '-c', 'uniform:12');
     expect(Object.keys(r).slice(0, 6)).toEqual([
       'file',

@@ -2,7 +2,7 @@
 // files of several formats are written to disk and read through openAudio to
 // the end. Each must be read or refused with an AudioFileError naming the
 // file, never crash with another error, and never take long (no hang).
-// Source of the requirement: issue 6 "Bad input" (common practice, no source).
+// Source of the requirement: ours, bad input is refused, never a crash (common practice, no source).
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';

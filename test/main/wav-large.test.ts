@@ -1,8 +1,8 @@
 // A 1 GiB WAV file (float32, 48 kHz, mono: 268 million samples, 93 minutes)
 // generated in chunks, read through openAudio to the end and then analysed
 // (main/cli/analyze-file.ts, one G.711 channel) in a child process that samples
-// its resident memory meanwhile; the requirement (issue 6, "Input files") is
-// that memory stays flat: under 300 MB resident.
+// its resident memory meanwhile; our requirement is that memory stays flat: under
+// 300 MB resident.
 // The child is a fresh Node process, so the test runner's own heap does not
 // blur the figure. Layout of the header: RIFF specification (from memory),
 // built by hand as in test/core/wav-riff.ts.

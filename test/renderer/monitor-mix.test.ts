@@ -1,6 +1,6 @@
 // The monitor's crossfade weights: equal gain (linear, weights sum to 1) between the
 // correlated choices, equal power (squares sum to 1) to and from the error, and never
-// longer than the 20 ms. Equal-gain vs equal-power crossfades for correlated vs
+// longer than 20 ms (our requirement). Equal-gain vs equal-power crossfades for correlated vs
 // uncorrelated signals: common practice in audio editing, no source.
 import { describe, expect, it } from 'vitest';
 import {

@@ -1,6 +1,6 @@
 // The processor under a worklet shim for 10,000 render quanta, in a child process with
 // --expose-gc: no garbage collection during the run and no heap growth after it. The
-// issue's requirement (process() allocates nothing; common practice for real-time
+// requirement is ours (process() allocates nothing; common practice for real-time
 // audio threads, no source). Collections are counted with PerformanceObserver 'gc'
 // entries (Node perf_hooks documentation).
 //

@@ -112,7 +112,7 @@ describe('output safety', () => {
   });
 
   it('never lets a sample above the -1 dBFS ceiling, however loud the monitor', () => {
-    // The issue's ceiling: -1 dBFS. A 4-bit channel's error monitored at +40 dB overshoots on purpose.
+    // The ceiling: -1 dBFS (our requirement). A 4-bit channel's error monitored at +40 dB overshoots on purpose.
     const rig = new Rig({ muted: false, volumeDb: 100, monitor: 'error', a: 'uniform:4' });
     rig.send({ type: 'error-gain', db: 40 });
     const out = rig.run(tone(0.5, 0.99, 997));
@@ -134,7 +134,7 @@ describe('output safety', () => {
 
 describe('monitor switching', () => {
   it('keeps the envelope within 0.5 dB and no step above twice the steady maximum across Ref, A, B, Hidden', () => {
-    // The issue's limits: envelope within 0.5 dB of its steady level; sample-to-sample step at most 2x the steady maximum.
+    // Our requirement: envelope within 0.5 dB of its steady level; sample-to-sample step at most 2x the steady maximum.
     const rig = new Rig({ muted: false, volumeDb: -12, monitor: 'ref', a: 'g711-mu', b: 'g711-a' });
     const signal = tone(2, 0.3);
     const order: ToWorklet[] = ['a', 'b', 'hidden', 'ref', 'b', 'a', 'hidden'].map((c) => ({
@@ -188,7 +188,7 @@ describe('snapshots', () => {
   it('posts about 25 a second from a fixed pool and skips rather than allocate when none is free', () => {
     const rig = new Rig({ poolSize: 3 });
     rig.run(tone(1));
-    // One per 1920 frames at 48 kHz: 25 per second (the issue: about 25 a second).
+    // One per 1920 frames at 48 kHz: 25 per second (our requirement: about 25 a second).
     expect(rig.of('snapshot').length).toBe(25);
     const slots = new Set(rig.of('snapshot').map((s) => s.slot));
     expect(slots.size).toBeLessThanOrEqual(3);
