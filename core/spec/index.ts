@@ -12,8 +12,10 @@ export {
 export {
   TABLE_NAME,
   bitsOfLevels,
+  storedAs,
   storedTable,
   tableLookup,
+  type StoredLevels,
   type StoredTable,
   type TableLookup,
 } from './tables';

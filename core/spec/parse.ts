@@ -90,7 +90,17 @@ function storedLevels(name: string, tables: TableLookup | undefined) {
   } catch (e) {
     fail(name, `the stored table is unusable: ${(e as Error).message.replace(/^table: /, '')}`);
   }
-  return { decisions, outputs };
+  const stored: StageOptions & { decisions: number[]; outputs: number[] } = { decisions, outputs };
+  const { overloadPoint: ov, loadCapacityDbm0: lc } = found;
+  if (ov !== undefined) {
+    if (!(ov > 0 && Number.isFinite(ov))) fail(name, 'the stored table has a bad overload point');
+    stored.overloadPoint = ov;
+  }
+  if (lc !== undefined) {
+    if (!Number.isFinite(lc)) fail(name, 'the stored table has a bad load capacity');
+    stored.loadCapacityDbm0 = lc;
+  }
+  return stored;
 }
 
 export function parseStage(text: string, options: ParseOptions = {}): StageSpec {
@@ -137,6 +147,7 @@ export function parseStage(text: string, options: ParseOptions = {}): StageSpec 
       if (params.length === 1 && TABLE_NAME.test(params[0])) {
         const name = params[0];
         const levels = storedLevels(name, options.tables);
+        // Options in the text win over the stored overload point and load capacity.
         return { law: 'table', ...levels, ...parseOptions(optionParts, 'table', false, true), name };
       }
       if (params.length < 2 || params.length > 3)

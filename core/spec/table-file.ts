@@ -1,6 +1,7 @@
 // The tables file: stored tables as JSON, our own format.
 //   { "format": "quantiscope-tables", "version": 1,
-//     "tables": [ { "name", "bits", "decisions": [...], "outputs": [...], "note"?, "created"? } ] }
+//     "tables": [ { "name", "bits", "decisions": [...], "outputs": [...],
+//                   "overloadPoint"?, "loadCapacityDbm0"?, "note"?, "created"? } ] }
 // Fields a version-1 reader does not know are ignored, so later additions that old
 // readers may skip need no new version; a higher version is refused.
 import { checkTable } from '../quantizers/table';
@@ -65,6 +66,18 @@ function checked(entry: unknown, i: number): StoredTable {
   if (entry.bits !== bits)
     bad(`"bits" is ${shown(entry.bits)}, but ${outputs.length} levels take ${bits}`, name);
   const table: StoredTable = { name, decisions, outputs, bits };
+  const ov = entry.overloadPoint;
+  if (ov !== undefined) {
+    if (typeof ov !== 'number' || !(ov > 0) || !Number.isFinite(ov))
+      bad(`"overloadPoint" must be a finite number above 0 (got ${shown(ov)})`, name);
+    else table.overloadPoint = ov;
+  }
+  const lc = entry.loadCapacityDbm0;
+  if (lc !== undefined) {
+    if (typeof lc !== 'number' || !Number.isFinite(lc))
+      bad(`"loadCapacityDbm0" must be a finite number (got ${shown(lc)})`, name);
+    else table.loadCapacityDbm0 = lc;
+  }
   for (const key of ['note', 'created'] as const) {
     const v = entry[key];
     if (v === undefined) continue;
@@ -128,6 +141,9 @@ export function tableFileText(tables: readonly StoredTable[]): string {
       `"decisions": ${JSON.stringify(t.decisions)}`,
       `"outputs": ${JSON.stringify(t.outputs)}`,
     ];
+    if (t.overloadPoint !== undefined) lines.push(`"overloadPoint": ${JSON.stringify(t.overloadPoint)}`);
+    if (t.loadCapacityDbm0 !== undefined)
+      lines.push(`"loadCapacityDbm0": ${JSON.stringify(t.loadCapacityDbm0)}`);
     if (t.note !== undefined) lines.push(`"note": ${JSON.stringify(t.note)}`);
     if (t.created !== undefined) lines.push(`"created": ${JSON.stringify(t.created)}`);
     return `    {\n${lines.map((l) => `      ${l}`).join(',\n')}\n    }`;

@@ -10,6 +10,7 @@ import {
   fullChannel,
   parseChannel,
   shortChannel,
+  storedTable,
   tableLookup,
   type ChannelSpec,
   type StageSpec,
@@ -178,6 +179,34 @@ describe('channel specification text form', () => {
     }),
   );
 
+  it('takes the overload point and load capacity stored with a table, unless the text gives its own', () => {
+    const designed = tableLookup([
+      { name: 'max2', bits: 2, ...MAX2, overloadPoint: 1.51, loadCapacityDbm0: 6.72 },
+    ]);
+    const spec = parseChannel('table:max2', { tables: designed });
+    expect(spec.stages[0]).toEqual({
+      law: 'table',
+      name: 'max2',
+      ...MAX2,
+      overloadPoint: 1.51,
+      loadCapacityDbm0: 6.72,
+    });
+    expect(parseChannel('table:max2,ov=2', { tables: designed }).stages[0]).toMatchObject({
+      overloadPoint: 2,
+      loadCapacityDbm0: 6.72,
+    });
+    // The short form leaves out only what the stored table supplies.
+    expect(shortChannel('table:max2,ov=2,seg=4', designed)).toBe('table:max2,seg=4,ov=2');
+    expect(formatChannel(spec, { short: true })).toBe('table:max2,ov=1.51,lc=6.72');
+    expect(formatChannel(spec, { short: true, tables: designed })).toBe('table:max2');
+    expect(fullChannel('table:max2', designed)).toBe(`${MAX2_TEXT},ov=1.51,lc=6.72`);
+    // A table whose levels differ from the stored ones under its name cannot be shortened.
+    const other = parseChannel('table:max2:0:-1/1');
+    expect(formatChannel(other, { short: true, tables: designed })).toBe('table:max2:0:-1/1');
+    // Nor one without the ov the stored table would fill in.
+    expect(formatChannel(parseChannel(MAX2_TEXT), { short: true, tables: designed })).toBe(MAX2_TEXT);
+  });
+
   // Tables: ascending outputs on a 1/1024 grid (exact in binary), each decision the midpoint
   // of its two outputs, so every output lies inside its own cell as checkTable requires.
   const table: fc.Arbitrary<TableStage> = fc
@@ -187,52 +216,66 @@ describe('channel specification text form', () => {
         shift: fc.integer({ min: -40000, max: 40000 }),
         named: fc.boolean(),
         segments: fc.integer({ min: 1, max: 64 }),
+        overloadPoint: fc.double({ min: 1e-3, max: 10, noNaN: true }),
+        loadCapacityDbm0: fc.double({ min: -10, max: 10, noNaN: true }),
       },
       { requiredKeys: ['steps', 'shift', 'named'] },
     )
-    .map(({ steps, shift, named, segments }) => {
+    .map(({ steps, shift, named, ...options }) => {
       let at = shift;
       const outputs = steps.map((d) => (at += d) / 1024);
       const decisions = outputs.slice(1).map((y, i) => (outputs[i] + y) / 2);
-      const t: TableStage = { law: 'table', decisions, outputs };
+      const t: TableStage = { law: 'table', decisions, outputs, ...options };
       if (named) t.name = 'pending';
-      if (segments !== undefined) t.segments = segments;
       return t;
     });
 
   it('parse(format(spec)) gives the spec back, in full and in the short form (property test, fast-check)', () => {
     const rate = fc.oneof(fc.constant<ChannelSpec['rate']>('native'), fc.integer({ min: 1000, max: 384000 }));
     fc.assert(
-      fc.property(fc.array(fc.oneof(stage, table), { minLength: 1, maxLength: 4 }), rate, (stages, r) => {
-        // Each named table gets a name of its own, so one lookup holds them all.
-        const named = stages.map((s, k) =>
-          s.law === 'table' && s.name !== undefined ? { ...s, name: `t-${k}` } : s,
-        );
-        const spec: ChannelSpec = { stages: named, rate: r };
-        const clean = JSON.parse(JSON.stringify(spec)) as ChannelSpec; // -0 and undefined keys normalised
-        // The default form carries every level, so it reads back with no lookup at all.
-        expect(parseChannel(formatChannel(spec))).toEqual(clean);
-        const tables = tableLookup(
-          named.flatMap((s) =>
-            s.law === 'table' && s.name !== undefined
-              ? [
-                  {
-                    name: s.name,
-                    bits: bitsOfLevels(s.outputs.length),
-                    decisions: s.decisions,
-                    outputs: s.outputs,
-                  },
-                ]
-              : [],
-          ),
-        );
-        const short = formatChannel(spec, { short: true });
-        expect(parseChannel(short, { tables })).toEqual(clean);
-        // Without the lookup the short form of a named table is refused, never misread.
-        const hasNamed = named.some((s) => s.law === 'table' && s.name !== undefined);
-        if (hasNamed) expect(() => parseChannel(short)).toThrow(/no stored table of that name/);
-        else expect(short).toBe(formatChannel(spec));
-      }),
+      fc.property(
+        fc.array(fc.oneof(stage, table), { minLength: 1, maxLength: 4 }),
+        rate,
+        fc.boolean(),
+        (stages, r, keepOptions) => {
+          // Each named table gets a name of its own, so one lookup holds them all.
+          const named = stages.map((s, k) =>
+            s.law === 'table' && s.name !== undefined ? { ...s, name: `t-${k}` } : s,
+          );
+          const spec: ChannelSpec = { stages: named, rate: r };
+          const clean = JSON.parse(JSON.stringify(spec)) as ChannelSpec; // -0 and undefined keys normalised
+          // The default form carries every level, so it reads back with no lookup at all.
+          expect(parseChannel(formatChannel(spec))).toEqual(clean);
+          // Stored as the design stores them: levels, and (or not) the stage's ov and lc; from the
+          // normalised spec, as a tables file (JSON) holds them.
+          const tables = tableLookup(
+            clean.stages.flatMap((s) =>
+              s.law === 'table' && s.name !== undefined
+                ? [
+                    keepOptions
+                      ? storedTable(s)
+                      : {
+                          name: s.name,
+                          bits: bitsOfLevels(s.outputs.length),
+                          decisions: s.decisions,
+                          outputs: s.outputs,
+                        },
+                  ]
+                : [],
+            ),
+          );
+          // Short with or without the stored tables to leave out what they hold: both read back.
+          const short = formatChannel(spec, { short: true });
+          expect(parseChannel(short, { tables })).toEqual(clean);
+          const shorter = formatChannel(spec, { short: true, tables });
+          expect(parseChannel(shorter, { tables })).toEqual(clean);
+          expect(shorter.length).toBeLessThanOrEqual(short.length);
+          // Without the lookup the short form of a named table is refused, never misread.
+          const hasNamed = named.some((s) => s.law === 'table' && s.name !== undefined);
+          if (hasNamed) expect(() => parseChannel(short)).toThrow(/no stored table of that name/);
+          else expect(short).toBe(formatChannel(spec));
+        },
+      ),
       { numRuns: 2000 },
     );
   });

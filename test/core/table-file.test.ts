@@ -18,6 +18,7 @@ const MAX2: StoredTable = {
   bits: 2,
   decisions: [-0.9816, 0, 0.9816],
   outputs: [-1.51, -0.4528, 0.4528, 1.51],
+  overloadPoint: 1.51,
   note: 'Gaussian, unit variance',
   created: '2024-01-01T00:00:00Z',
 };
@@ -44,6 +45,9 @@ describe('tables file', () => {
       note: 'Laplacian, sigma 0.1',
     });
     expect(designed.bits).toBe(4);
+    // A designed table keeps its overload point (its outermost output) and load capacity.
+    expect(designed.overloadPoint).toBe(designed.outputs[15]);
+    expect(designed.loadCapacityDbm0).toBeCloseTo(3.14 + 20 * Math.log10(designed.outputs[15]), 12);
     const tables = [MAX2, designed];
     const text = tableFileText(tables);
     expect(parseTableFile(text, 'lib.json')).toEqual(tables);
@@ -86,6 +90,14 @@ describe('tables file', () => {
       ],
       [doc([{ ...bare, bits: 3 }]), /^lib\.json: table 1 \("max2"\): "bits" is 3, but 4 levels take 2$/],
       [doc([{ ...bare, note: 7 }]), /^lib\.json: table 1 \("max2"\): "note" must be text$/],
+      [
+        doc([{ ...bare, overloadPoint: 0 }]),
+        /^lib\.json: table 1 \("max2"\): "overloadPoint" must be a finite number above 0 \(got 0\)$/,
+      ],
+      [
+        doc([{ ...bare, loadCapacityDbm0: '3' }]),
+        /^lib\.json: table 1 \("max2"\): "loadCapacityDbm0" must be a finite number \(got "3"\)$/,
+      ],
       [doc([bare, bare]), /^lib\.json: table 2: the name "max2" is used twice$/],
     ];
     for (const [text, why] of cases) expect(refusal(text), text).toMatch(why);
@@ -140,6 +152,8 @@ describe('tables file', () => {
       (d, v) => (d.tables[0].outputs = v),
       (d, v) => ((d.tables[0].outputs as unknown[])[2] = v),
       (d, v) => (d.tables[0].note = v),
+      (d, v) => (d.tables[0].overloadPoint = v),
+      (d, v) => (d.tables[0].loadCapacityDbm0 = v),
       (d, v) => (d.tables[0].created = v),
     ];
     fc.assert(
