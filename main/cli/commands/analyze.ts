@@ -1,4 +1,5 @@
 // quantiscope analyze FILE... : the measurement engine over recordings.
+import type { TableLookup } from '../../../core/spec/tables';
 import { numberOption, valueOf, type ParsedArgs } from '../args';
 import type { AnalyzeTask, ChannelResult, FileResult } from '../analyze-file';
 import type { CliContext, Command } from '../context';
@@ -17,20 +18,23 @@ import {
   printReports,
   RAW_OPTION,
   reportFormOf,
+  shown,
+  TABLE_OPTION,
+  tablesOf,
   TRACK_OPTION,
 } from './common';
 
 export const DEFAULT_ANALYZE_CHANNELS = ['g711-mu'];
 
-function segmentRows(c: ChannelResult): string[][] {
+function segmentRows(c: ChannelResult, tables?: TableLookup): string[][] {
   return [
-    [c.name, 'share %', ...c.segments.map((s) => percent(s.share))],
+    [shown(c.name, tables), 'share %', ...c.segments.map((s) => percent(s.share))],
     ['', 'SNR dB', ...c.segments.map((s) => fixed(s.snrDb))],
   ];
 }
 
 /** The terminal form of one file's figures. */
-export function fileTable(r: FileResult): string[] {
+export function fileTable(r: FileResult, tables?: TableLookup): string[] {
   const lines: string[] = [];
   const rate =
     r.pathRate === r.sampleRate ? `${r.sampleRate} Hz` : `${r.sampleRate} Hz, converted to ${r.pathRate} Hz`;
@@ -43,7 +47,7 @@ export function fileTable(r: FileResult): string[] {
   }
   const at = r.channels[0];
   lines.push(
-    `  talker at ${at.name}: active level ${fixed(r.activeLevelDbov, 2)} dBov, activity ${percent(r.activityFactor)} %, ` +
+    `  talker at ${shown(at.name, tables)}: active level ${fixed(r.activeLevelDbov, 2)} dBov, activity ${percent(r.activityFactor)} %, ` +
       `peak ${fixed(r.peakDbov, 2)} dBov, overloads ${r.overloads}`,
   );
   const weighted = r.channels.some((c) => c.weightedSnrDb !== undefined);
@@ -63,7 +67,7 @@ export function fileTable(r: FileResult): string[] {
     ...table([
       head,
       ...r.channels.map((c) => [
-        `  ${c.name}`,
+        `  ${shown(c.name, tables)}`,
         String(c.rate),
         String(c.bitRate / 1000),
         fixed(c.snrDb, 2),
@@ -81,17 +85,17 @@ export function fileTable(r: FileResult): string[] {
   lines.push(
     ...table([
       ['', 'segment', ...Array.from({ length: most }, (_, s) => String(s + 1))],
-      ...r.channels.flatMap(segmentRows),
+      ...r.channels.flatMap((c) => segmentRows(c, tables)),
     ]).map((l) => `    ${l}`),
   );
   for (const c of r.channels) {
     if (c.stages.length < 2) continue;
     const parts = c.stages.map((s, k) =>
       k === 0
-        ? `${s.name} ${fixed(s.snrDb, 2)} dB`
-        : `> ${s.name} ${fixed(s.snrDb, 2)} dB (loss ${fixed(s.lossDb, 2)})`,
+        ? `${shown(s.name, tables)} ${fixed(s.snrDb, 2)} dB`
+        : `> ${shown(s.name, tables)} ${fixed(s.snrDb, 2)} dB (loss ${fixed(s.lossDb, 2)})`,
     );
-    lines.push(`  tandem ${c.name}, SNR after each stage: ${parts.join(' ')}`);
+    lines.push(`  tandem ${shown(c.name, tables)}, SNR after each stage: ${parts.join(' ')}`);
   }
   return lines;
 }
@@ -151,7 +155,8 @@ export function resultsCsv(results: readonly FileResult[]): string[] {
 
 async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const files = needFiles(args);
-  const channels = canonical(channelsOf(args, DEFAULT_ANALYZE_CHANNELS));
+  const tables = await tablesOf(args);
+  const channels = canonical(channelsOf(args, DEFAULT_ANALYZE_CHANNELS, tables));
   const form = reportFormOf(args);
   const alignText = valueOf(args, 'align');
   const alignDbov = alignText === undefined ? null : numberOption('align', alignText, { min: -100, max: 0 });
@@ -165,7 +170,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   }));
   const settled = await analyseAll('analyze', tasks, jobsOf(args, ctx), ctx);
   const results = settled.flatMap((s) => (s.ok ? [s.value.result] : []));
-  printReports(ctx, form, results, resultsCsv, fileTable);
+  printReports(ctx, form, results, resultsCsv, (r) => fileTable(r, tables));
   const failed = settled.length - results.length;
   return exitStatus(ctx, 'analyze', failed > 0 ? `${failed} of ${settled.length} files failed` : null);
 }
@@ -173,7 +178,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
 export const analyzeCommand: Command = {
   name: 'analyze',
   summary: 'SNR, segments and talker levels of recordings through channels',
-  synopsis: 'FILE... [--channel SPEC]... [--json | --csv] [--align DBOV] [--jobs N]',
+  synopsis: 'FILE... [--channel SPEC]... [--table FILE]... [--json | --csv] [--align DBOV] [--jobs N]',
   description: [
     'Runs each file through the channel path and every channel given (default g711-mu) and reports, per file',
     'and channel: the P.56 active level and activity, peak and overloads where the first channel meets the',
@@ -184,12 +189,14 @@ export const analyzeCommand: Command = {
     'JSON: an array with one object per file analysed: file, activeLevelDbov, activityFactor, peakDbov,',
     'overloads, channels [{name, snrDb, segSnrDb {mean, p5, p50, p95}, segments [{index, share, snrDb}],',
     'stages [{name, snrDb, lossDb}], ...}], and sampleRate, seconds, gainDb, alignedToDbov. Figures that',
-    'do not exist (silence, no error) are null.',
+    'do not exist (silence, no error) are null. A table channel is named in JSON and CSV by its full text',
+    '(every level), however it was given; the terminal table shows a named table as table:NAME.',
     'Exit status 1 when any file failed (each is named on stderr with its reason; the others are still',
     'analysed and reported), 2 for a usage mistake.',
   ],
   options: [
     CHANNEL_OPTION,
+    TABLE_OPTION,
     { name: 'json', help: 'print one JSON array' },
     { name: 'csv', help: 'print CSV, one row per file and channel' },
     {

@@ -3,11 +3,12 @@ import {
   CHANNEL_PRESETS,
   CHANNEL_SYNTAX,
   channelFigures,
+  parseChannel,
   type ChannelFigures,
 } from '../../../core/spec/index';
 import { UsageError, type ParsedArgs } from '../args';
 import { EXIT_OK, type CliContext, type Command } from '../context';
-import { exitStatus, HELP_OPTION, printLines } from './common';
+import { exitStatus, HELP_OPTION, printLines, TABLE_OPTION, tablesOf } from './common';
 
 function describe(f: ChannelFigures): string[] {
   const signed = (n: number) => (n >= 0 ? '+' : '') + n.toFixed(2);
@@ -27,10 +28,11 @@ async function runChannel(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const texts = args.operands;
   if (texts.length === 0)
     throw new UsageError('give at least one channel, for example: quantiscope channel g711-mu');
+  const tables = await tablesOf(args);
   const figures: ChannelFigures[] = [];
   for (const text of texts) {
     try {
-      figures.push(channelFigures(text));
+      figures.push(channelFigures(parseChannel(text, { tables })));
     } catch (err) {
       return exitStatus(ctx, 'channel', err instanceof Error ? err.message : String(err));
     }
@@ -43,9 +45,12 @@ async function runChannel(args: ParsedArgs, ctx: CliContext): Promise<number> {
 export const channelCommand: Command = {
   name: 'channel',
   summary: 'describe channels given in the text form',
-  synopsis: 'TEXT... [--json]',
-  description: [`Channel text form: ${CHANNEL_SYNTAX}`],
-  options: [{ name: 'json', help: 'print one JSON array' }, HELP_OPTION],
+  synopsis: 'TEXT... [--table FILE]... [--json]',
+  description: [
+    `Channel text form: ${CHANNEL_SYNTAX}`,
+    'table:NAME names a table of a --table file; the description gives it in full, every level.',
+  ],
+  options: [{ name: 'json', help: 'print one JSON array' }, TABLE_OPTION, HELP_OPTION],
   run: runChannel,
 };
 

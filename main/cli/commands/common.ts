@@ -1,7 +1,8 @@
 // Options and steps several commands share.
 import { ChannelSpecError } from '../../../core/spec/errors';
-import { formatChannel } from '../../../core/spec/format';
+import { formatChannel, shortChannel } from '../../../core/spec/format';
 import { parseChannel } from '../../../core/spec/parse';
+import type { TableLookup } from '../../../core/spec/tables';
 import type { ChannelSpec } from '../../../core/spec/types';
 import {
   choiceOption,
@@ -16,6 +17,7 @@ import type { AnalyzeTask } from '../analyze-file';
 import { EXIT_FAILURE, EXIT_OK, type CliContext } from '../context';
 import type { InputOptions } from '../input';
 import { Progress, TaskProgress } from '../progress';
+import { readTableFiles } from '../table-files';
 import { runTasks, type Settled } from '../workers';
 
 export const HELP_OPTION: OptionSpec = { name: 'help', short: 'h', help: 'this text' };
@@ -26,6 +28,13 @@ export const CHANNEL_OPTION: OptionSpec = {
   value: 'SPEC',
   repeat: true,
   help: 'a channel in the text form (see `quantiscope channel --help`)',
+};
+
+export const TABLE_OPTION: OptionSpec = {
+  name: 'table',
+  value: 'FILE',
+  repeat: true,
+  help: 'a tables file (as design --table-out writes); its tables may be named as table:NAME',
 };
 
 export const TRACK_OPTION: OptionSpec = {
@@ -47,23 +56,46 @@ export const JOBS_OPTION: OptionSpec = {
   help: 'files analysed in parallel (default: the number of cores, at most the number of files)',
 };
 
-/** Parsed channel texts; a bad one is a usage error naming the bad part. */
-export function channelsOf(args: ParsedArgs, fallback: readonly string[]): ChannelSpec[] {
-  const texts = valuesOf(args, 'channel');
-  return (texts.length > 0 ? texts : fallback).map((t) => parseChannelOption(t));
+/** The tables of every --table file, for table:NAME; a bad file is a usage error naming it. */
+export function tablesOf(args: ParsedArgs): Promise<TableLookup | undefined> {
+  return readTableFiles(valuesOf(args, 'table'));
 }
 
-export function parseChannelOption(text: string): ChannelSpec {
+/** Parsed channel texts; a bad one is a usage error naming the bad part. */
+export function channelsOf(
+  args: ParsedArgs,
+  fallback: readonly string[],
+  tables?: TableLookup,
+): ChannelSpec[] {
+  const texts = valuesOf(args, 'channel');
+  return (texts.length > 0 ? texts : fallback).map((t) => parseChannelOption(t, tables));
+}
+
+export function parseChannelOption(text: string, tables?: TableLookup, option = '--channel'): ChannelSpec {
   try {
-    return parseChannel(text);
+    return parseChannel(text, { tables });
   } catch (err) {
-    if (err instanceof ChannelSpecError) throw new UsageError(`--channel ${text}: ${err.message}`);
-    throw err;
+    if (!(err instanceof ChannelSpecError)) throw err;
+    const hint = /no stored table/.test(err.message) ? '; give its tables file with --table FILE' : '';
+    throw new UsageError(`${option} ${text}: ${err.message}${hint}`);
   }
 }
 
+/** Full text forms: every table with its levels, so what is written reads back anywhere. */
 export function canonical(specs: readonly ChannelSpec[]): string[] {
   return specs.map((s) => formatChannel(s));
+}
+
+/**
+ * A channel's text for the terminal tables: a named table by its name, and by its name
+ * alone where the --table files hold it as it is.
+ */
+export function shown(text: string, tables?: TableLookup): string {
+  try {
+    return shortChannel(text, tables);
+  } catch {
+    return text;
+  }
 }
 
 export function inputOptionsOf(args: ParsedArgs): InputOptions {

@@ -17,6 +17,7 @@ import { ChannelMeter } from '../../../core/measure/channel-meter';
 import { TalkerMeter } from '../../../core/measure/talker-meter';
 import { createQuantizer } from '../../../core/quantizers/index';
 import { formatChannel } from '../../../core/spec/format';
+import type { TableLookup } from '../../../core/spec/tables';
 import type { ChannelSpec } from '../../../core/spec/types';
 import { numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
 import type { SegmentResult } from '../analyze-file';
@@ -30,6 +31,9 @@ import {
   parseChannelOption,
   printLines,
   RAW_OPTION,
+  shown,
+  TABLE_OPTION,
+  tablesOf,
   TRACK_OPTION,
 } from './common';
 
@@ -157,7 +161,7 @@ export interface CompareReport {
   segments: SegmentResult[];
 }
 
-export function compareTable(r: CompareReport): string[] {
+export function compareTable(r: CompareReport, tables?: TableLookup): string[] {
   const m = r.segments;
   return [
     `${r.file} against ${r.reference}  (${r.rate} Hz, ${r.seconds.toFixed(2)} s compared)`,
@@ -169,7 +173,7 @@ export function compareTable(r: CompareReport): string[] {
       `peak ${fixed(r.peakDbov, 2)} dBov, overloads ${r.overloads}`,
     `  SNR ${fixed(r.snrDb, 2)} dB; segmental ${fixed(r.segSnrDb.mean, 2)} dB (p5 ${fixed(r.segSnrDb.p5)}, ` +
       `p50 ${fixed(r.segSnrDb.p50)}, p95 ${fixed(r.segSnrDb.p95)})`,
-    `  segments of ${r.ledger}, softest first:`,
+    `  segments of ${shown(r.ledger, tables)}, softest first:`,
     ...table([
       ['segment', ...m.map((s) => String(s.index + 1))],
       ['share %', ...m.map((s) => percent(s.share))],
@@ -188,6 +192,9 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const maxDelayS =
     maxDelayText === undefined ? 1 : numberOption('max-delay', maxDelayText, { min: 0, max: 10 });
   const ledgerText = valueOf(args, 'ledger');
+  const tables = await tablesOf(args);
+  // Read before the long first pass, so a bad --ledger is refused at once.
+  const ledgerGiven = ledgerText === undefined ? null : parseChannelOption(ledgerText, tables, '--ledger');
   const opts = inputOptionsOf(args);
   const progress = new Progress(ctx.io.status, 'compare');
 
@@ -232,8 +239,8 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
 
   // Pass 2: stream both, paired at the delay, through the accumulators.
   const ledgerSpec: ChannelSpec =
-    ledgerText !== undefined
-      ? parseChannelOption(ledgerText)
+    ledgerGiven !== null
+      ? ledgerGiven
       : { stages: [{ law: outEncoding === 'mulaw' ? 'g711-mu' : 'g711-a' }], rate };
   const q = createQuantizer(ledgerSpec.stages[0]);
   const meter = new ChannelMeter({ quantizer: q, rate });
@@ -306,7 +313,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     })),
   };
   if (args.flags.has('json')) ctx.io.out(JSON.stringify(report, null, 2));
-  else printLines(ctx, compareTable(report));
+  else printLines(ctx, compareTable(report, tables));
   for (const w of warnings) if (w.startsWith('alignment unreliable')) ctx.io.err(`quantiscope compare: ${w}`);
   return EXIT_OK;
 }
@@ -314,7 +321,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
 export const compareCommand: Command = {
   name: 'compare',
   summary: "judge another channel's output against the signal fed to it",
-  synopsis: 'REF OUT [--max-delay S] [--ledger SPEC] [--json]',
+  synopsis: 'REF OUT [--max-delay S] [--ledger SPEC] [--table FILE]... [--json]',
   description: [
     'REF is the signal fed to the channel, OUT what the channel gave back (a device or firmware recorded',
     "against it). REF is brought to OUT's rate through the channel path; the delay comes from the",
@@ -327,6 +334,7 @@ export const compareCommand: Command = {
   options: [
     { name: 'max-delay', value: 'S', help: 'largest delay searched either way, seconds (default 1)' },
     { name: 'ledger', value: 'SPEC', help: 'channel whose segments the ledger uses' },
+    TABLE_OPTION,
     { name: 'json', help: 'print one JSON object' },
     TRACK_OPTION,
     { ...RAW_OPTION, help: 'OUT is headerless G.711 (8000 Hz) of this law' },

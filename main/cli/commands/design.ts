@@ -13,12 +13,14 @@ import { recommend, type Recommendation } from '../../../core/design/recommend';
 import { ChannelSpecError } from '../../../core/spec/errors';
 import { formatChannel } from '../../../core/spec/format';
 import { parseRate } from '../../../core/spec/parse';
+import { storedTable, TABLE_NAME } from '../../../core/spec/tables';
 import type { ChannelSpec } from '../../../core/spec/types';
 import { PCM16_SCALE } from '../../../core/units/levels';
 import { choiceOption, numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
 import type { AnalyzeOutcome, AnalyzeTask, LevelsResult } from '../analyze-file';
 import type { CliContext, Command } from '../context';
 import { fixed, percent, signed, table } from '../format';
+import { checkOutput, writeTableFile } from '../table-files';
 import type { Settled } from '../workers';
 import {
   analyseAll,
@@ -62,7 +64,12 @@ export interface DesignReport {
   rateHz: number;
   method: 'lloyd-max' | 'panter-dite';
   bits: number;
+  /** The table's name: table:NAME in a channel where its tables file is given. */
+  name: string;
+  /** Full channel text, every level in it. */
   channel: string;
+  /** The tables file written by --table-out, or null. */
+  tableFile: string | null;
   /** Positive half: decision values t_1 .. t_{M-1} and outputs y_1 .. y_M (float scale). */
   decisions: number[];
   outputs: number[];
@@ -114,6 +121,7 @@ export function designTable(d: DesignReport): string[] {
     `  predicted SNR ${fixed(d.predictedSnrDb, 2)} dB (the table integrated over the files' level density)`,
     `  measured SNR  ${fixed(d.measuredSnrDb, 2)} dB on the files (segmental ${fixed(d.measuredSegSnrDb, 2)} dB)`,
     `  channel text: ${d.channel}`,
+    ...(d.tableFile === null ? [] : [`  stored as table:${d.name} in ${d.tableFile}`]),
   ];
 }
 
@@ -147,6 +155,7 @@ function designFor(
   levels: LevelsResult,
   bits: number,
   method: 'lloyd-max' | 'panter-dite',
+  chosenName: string | undefined,
 ): DesignedQuantizer {
   const density = densityFromDbov(
     {
@@ -159,7 +168,7 @@ function designFor(
     levels.overloadPoint,
     'files',
   );
-  const name = `files-${method === 'lloyd-max' ? 'lm' : 'pd'}-${bits}`;
+  const name = chosenName ?? `files-${method === 'lloyd-max' ? 'lm' : 'pd'}-${bits}`;
   return method === 'lloyd-max'
     ? designLloydMax(density, bits, { name })
     : designPanterDite(density, bits, name);
@@ -204,6 +213,18 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const json = args.flags.has('json');
   const input = inputOptionsOf(args);
   const jobs = jobsOf(args, ctx);
+  const name = valueOf(args, 'name');
+  if (name !== undefined && !TABLE_NAME.test(name))
+    throw new UsageError(
+      `--name ${name}: a table name is letters, digits, - and _, starting with a letter, at most 32`,
+    );
+  const tableOut = valueOf(args, 'table-out') ?? null;
+  const force = args.flags.has('force');
+  if (bits === null && (tableOut !== null || name !== undefined))
+    throw new UsageError('--table-out and --name go with --bits');
+  if (force && tableOut === null) throw new UsageError('--force goes with --table-out');
+  // Refused before the long analysis; checked again just before writing.
+  if (tableOut !== null) await checkOutput(tableOut, '--table-out', files, force);
 
   // 16-bit linear PCM at the design rate: a transparent meter of the talker.
   const probe = formatChannel({ stages: [{ law: 'uniform', bits: 16, form: 'tread' }], rate });
@@ -228,9 +249,10 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const levels = mergeLevels(good.map((o) => o.levels as LevelsResult));
   const okFiles = good.map((o) => o.result.file);
   const out: { design?: DesignReport; recommendation?: Recommendation } = {};
+  let writeFailure: string | null = null;
 
   if (bits !== null) {
-    const d = designFor(levels, bits, method);
+    const d = designFor(levels, bits, method, name);
     const spec: ChannelSpec = { stages: [d.stage], rate };
     const channel = formatChannel(spec);
     const second = await analyseAll(
@@ -242,12 +264,28 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     failed += second.length - successes(second).length;
     const measured = combined(second);
     const half = d.stage.outputs.length / 2;
+    let tableFile: string | null = null;
+    if (tableOut !== null) {
+      const listed =
+        okFiles.slice(0, 5).join(', ') + (okFiles.length > 5 ? ` and ${okFiles.length - 5} more` : '');
+      const note = `${method} ${bits} bits at ${rate} Hz, designed by quantiscope design from ${listed}`;
+      try {
+        await checkOutput(tableOut, '--table-out', files, force);
+        await writeTableFile(tableOut, [storedTable(d.stage, { note, created: new Date().toISOString() })]);
+        tableFile = tableOut;
+      } catch (err) {
+        // The design itself is still reported below; only the file is missing.
+        writeFailure = err instanceof Error ? err.message : String(err);
+      }
+    }
     out.design = {
       files: okFiles,
       rateHz: rate,
       method,
       bits,
+      name: d.stage.name ?? '',
       channel,
+      tableFile,
       decisions: d.stage.decisions.slice(half),
       outputs: d.stage.outputs.slice(half),
       predictedSnrDb: d.snrDb,
@@ -276,6 +314,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     if (out.design !== undefined && out.recommendation !== undefined) ctx.io.out('');
     if (out.recommendation !== undefined) printLines(ctx, recommendTable(out.recommendation));
   }
+  if (writeFailure !== null) return exitStatus(ctx, 'design', writeFailure);
   return exitStatus(
     ctx,
     'design',
@@ -286,19 +325,25 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
 export const designCommand: Command = {
   name: 'design',
   summary: "design a quantizer for the files' talker, or recommend a channel",
-  synopsis: 'FILE... (--bits N | --recommend [--target-snr DB] [--share S])',
+  synopsis: 'FILE... (--bits N [--table-out FILE [--force]] | --recommend [--target-snr DB] [--share S])',
   description: [
     'Runs the files through the channel path to the design rate (default 8000 Hz) and gathers their level',
     'spread and the levels of their active 20 ms frames (at or above the P.56 threshold).',
     '--bits N designs an N-bit odd-symmetric quantizer for the level spread (Lloyd-Max, or Panter-Dite with',
     '--method panter-dite) and prints its table, its predicted SNR (exact for the measured density) and the',
     'SNR measured running the files through it; the channel text it prints goes to --channel elsewhere.',
+    '--table-out FILE also writes the table to a tables file under its name (--name, default files-lm-N or',
+    'files-pd-N), so other commands take it as --table FILE --channel table:NAME. The file is written',
+    'whole and renamed into place; an existing file is replaced only with --force, an input file never.',
     '--recommend ranks uniform, mu-law, A-law, G.711 and designed candidates by bit rate for a target SNR',
     'met by a share of the active frames (default 30 dB in 99 %) and marks the cheapest that meets it.',
   ],
   options: [
     { name: 'bits', value: 'N', help: 'design an N-bit quantizer (1 to 12)' },
     { name: 'method', value: 'lloyd-max|panter-dite', help: 'design method (default lloyd-max)' },
+    { name: 'name', value: 'NAME', help: 'name of the designed table (letters, digits, - and _)' },
+    { name: 'table-out', value: 'FILE', help: 'write the designed table to this tables file' },
+    { name: 'force', help: 'let --table-out replace an existing file' },
     { name: 'recommend', help: 'rank candidate channels by bit rate' },
     { name: 'target-snr', value: 'DB', help: 'SNR the frames must reach (default 30)' },
     { name: 'share', value: 'S', help: 'share of active frames that must reach it, 0..1 (default 0.99)' },

@@ -1,5 +1,6 @@
 // quantiscope sweep --channel SPEC... : SNR versus level against the acceptance mask.
 import { formatStage } from '../../../core/spec/format';
+import type { TableLookup } from '../../../core/spec/tables';
 import type { ChannelSpec } from '../../../core/spec/types';
 import {
   G712_SINE_MASK,
@@ -12,7 +13,17 @@ import {
 import { choiceOption, numberOption, UsageError, valueOf, type ParsedArgs } from '../args';
 import type { CliContext, Command } from '../context';
 import { csvLine, fixed, signed, table } from '../format';
-import { CHANNEL_OPTION, channelsOf, exitStatus, HELP_OPTION, printReports, reportFormOf } from './common';
+import {
+  CHANNEL_OPTION,
+  channelsOf,
+  exitStatus,
+  HELP_OPTION,
+  printReports,
+  reportFormOf,
+  shown,
+  TABLE_OPTION,
+  tablesOf,
+} from './common';
 
 /** In-band and wideband figures after the first s stages of a tandem, per level. */
 export interface StageSweep {
@@ -60,13 +71,13 @@ function verdictText(r: SweepReport): string {
     : `FAIL against "${j.mask.name}": ${j.failed} of ${j.judged} levels below the mask (${worst})`;
 }
 
-export function sweepTable(r: SweepReport): string[] {
+export function sweepTable(r: SweepReport, tables?: TableLookup): string[] {
   const stim =
     r.stimulus.method === 'sine'
       ? `sine ${r.stimulus.frequencyHz} Hz`
       : `noise ${r.stimulus.bandHz?.[0]}-${r.stimulus.bandHz?.[1]} Hz`;
   const lines = [
-    `${r.channel}  (${stim} at ${r.rateHz} Hz; in-band ${r.analysisBandHz[0]}-${r.analysisBandHz[1]} Hz` +
+    `${shown(r.channel, tables)}  (${stim} at ${r.rateHz} Hz; in-band ${r.analysisBandHz[0]}-${r.analysisBandHz[1]} Hz` +
       `${r.judgement === null ? '' : `; mask held against the ${r.judgement.figure} figure`})`,
   ];
   const tandem = r.stageSweeps.length > 1 ? r.stageSweeps.slice(0, -1) : [];
@@ -97,7 +108,7 @@ export function sweepTable(r: SweepReport): string[] {
   });
   lines.push(...table([head, ...rows]));
   if (tandem.length > 0) {
-    const names = r.stageSweeps.map((s, k) => `${k + 1} ${s.stage}`).join(', ');
+    const names = r.stageSweeps.map((s, k) => `${k + 1} ${shown(s.stage, tables)}`).join(', ');
     lines.push(`  stages: ${names}; "after k" is the in-band SNR after stages 1..k (in-band is after all)`);
   }
   lines.push(`  ${verdictText(r)}`);
@@ -157,7 +168,8 @@ function maskOf(args: ParsedArgs): Mask | null | undefined {
 
 async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   if (args.operands.length > 0) throw new UsageError(`sweep takes no files (got ${args.operands[0]})`);
-  const specs = channelsOf(args, []);
+  const tables = await tablesOf(args);
+  const specs = channelsOf(args, [], tables);
   if (specs.length === 0) throw new UsageError('give at least one --channel');
   const form = reportFormOf(args);
   const num = (name: string, fallback: number) => {
@@ -187,19 +199,20 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
       throw err;
     }
   }
-  printReports(ctx, form, reports, sweepCsv, sweepTable);
+  printReports(ctx, form, reports, sweepCsv, (r) => sweepTable(r, tables));
   const failed = reports.filter((r) => r.judgement !== null && r.judgement.judged > 0 && !r.judgement.pass);
   return exitStatus(
     ctx,
     'sweep',
-    failed.length > 0 ? `${failed.map((r) => r.channel).join(', ')} failed the mask` : null,
+    failed.length > 0 ? `${failed.map((r) => shown(r.channel, tables)).join(', ')} failed the mask` : null,
   );
 }
 
 export const sweepCommand: Command = {
   name: 'sweep',
   summary: 'SNR versus level of channels against the G.712 mask',
-  synopsis: '--channel SPEC... [--method sine|noise] [--from DBM0] [--to DBM0] [--step DB] [--mask TEXT]',
+  synopsis:
+    '--channel SPEC... [--table FILE]... [--method sine|noise] [--from DBM0] [--to DBM0] [--step DB] [--mask TEXT]',
   description: [
     'Runs a level sweep at each channel rate: a 1020 Hz sine (ten one-period takes per level) or, with',
     '--method noise, band-limited Gaussian noise after O.131. Each level shows the wideband SNR (the exact',
@@ -210,6 +223,7 @@ export const sweepCommand: Command = {
   ],
   options: [
     CHANNEL_OPTION,
+    TABLE_OPTION,
     { name: 'method', value: 'sine|noise', help: 'stimulus (default sine)' },
     { name: 'from', value: 'DBM0', help: 'lowest level (default -60)' },
     { name: 'to', value: 'DBM0', help: 'highest level (default +3)' },
