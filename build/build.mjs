@@ -81,11 +81,12 @@ const targets = [
   },
 ];
 
+/** The page, its style sheets and its icon (favicon.svg), copied beside the bundles. */
 async function copyStatic(outDir) {
   const out = path.join(outDir, 'renderer');
   await mkdir(out, { recursive: true });
   const names = (await readdir(path.join(root, 'renderer'))).filter(
-    (n) => n === 'index.html' || n.endsWith('.css'),
+    (n) => n === 'index.html' || n.endsWith('.css') || n.endsWith('.svg'),
   );
   await Promise.all(names.map((n) => copyFile(path.join(root, 'renderer', n), path.join(out, n))));
   return names.length;

@@ -3,11 +3,21 @@
 import path from 'node:path';
 
 export const INDEX_FILE = 'index.html';
+/** The page's icon. The page links it; see ALIASES for browsers that ask for /favicon.ico anyway. */
+export const ICON_FILE = 'favicon.svg';
+
+/**
+ * Request paths answered by another file: '/' by the page, and '/favicon.ico' by the SVG icon,
+ * so a browser that asks for the conventional icon path gets our one icon (served under its
+ * real name's type, image/svg+xml) rather than a 404 in every log. Both shells resolve through
+ * here, so Electron's scheme and the loopback server answer alike.
+ */
+const ALIASES: Readonly<Record<string, string>> = { '/': INDEX_FILE, '/favicon.ico': ICON_FILE };
 
 /**
  * Absolute file path for a URL pathname (without query), or null when refused:
  * bad percent-encoding, NUL, backslashes, '.' or '..' segments, hidden names, or a
- * result outside `root`. '/' maps to index.html.
+ * result outside `root`. '/' maps to index.html and '/favicon.ico' to favicon.svg.
  */
 export function resolveStaticPath(root: string, urlPathname: string): string | null {
   if (!urlPathname.startsWith('/')) return null;
@@ -22,7 +32,7 @@ export function resolveStaticPath(root: string, urlPathname: string): string | n
   for (const seg of segments) {
     if (seg === '.' || seg === '..' || seg.startsWith('.')) return null;
   }
-  const relative = decoded === '/' ? INDEX_FILE : segments.join('/');
+  const relative = ALIASES[decoded] ?? segments.join('/');
   if (relative === '' || relative.endsWith('/')) return null;
   const base = path.resolve(root);
   const full = path.resolve(base, relative);

@@ -26,7 +26,7 @@ import http from 'node:http';
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 const [root, exe, flags, script] = JSON.parse(process.argv[1]);
-const types = { '.html': 'text/html', '.js': 'text/javascript', '.css': 'text/css', '.map': 'application/json' };
+const types = { '.html': 'text/html', '.js': 'text/javascript', '.css': 'text/css', '.map': 'application/json', '.svg': 'image/svg+xml' };
 const server = http.createServer(async (req, res) => {
   const rel = decodeURIComponent(new URL(req.url, 'http://127.0.0.1').pathname);
   const file = path.join(root, rel.endsWith('/') ? rel + 'index.html' : rel);

@@ -17,6 +17,13 @@ describe('resolveStaticPath', () => {
     expect(resolveStaticPath(root, '/a/b%20c.css')).toBe(path.join(root, 'a', 'b c.css'));
   });
 
+  it('answers the conventional /favicon.ico with the SVG icon, in both shells', () => {
+    // Browsers ask for /favicon.ico when a page names no icon (common practice, no source).
+    expect(resolveStaticPath(root, '/favicon.ico')).toBe(path.join(root, 'favicon.svg'));
+    expect(resolveStaticPath(root, '/favicon.svg')).toBe(path.join(root, 'favicon.svg'));
+    expect(resolveStaticPath(root, '/sub/favicon.ico')).toBe(path.join(root, 'sub', 'favicon.ico'));
+  });
+
   it.each([
     '',
     'app.js',
@@ -53,6 +60,8 @@ describe('mimeTypeFor', () => {
     ['s.CSS', 'text/css; charset=utf-8'],
     ['app.js.map', 'application/json; charset=utf-8'],
     ['a.wav', 'audio/wav'],
+    // SVG's registered type (SVG 1.1, W3C, appendix on the media type; from memory).
+    ['favicon.svg', 'image/svg+xml'],
     ['a.wasm', 'application/wasm'],
     ['noext', FALLBACK_MIME],
     ['.hidden', FALLBACK_MIME],
