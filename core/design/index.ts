@@ -35,6 +35,21 @@ export {
   type Recommendation,
   type RecommendOptions,
   DEFAULT_CANDIDATES,
-  frameLevelHistogram,
   recommend,
 } from './recommend';
+export {
+  FRAME_LEVEL_BIN_DB,
+  FRAME_LEVEL_BINS,
+  FRAME_LEVEL_MAX_DBOV,
+  FRAME_LEVEL_MIN_DBOV,
+  FrameLevelTally,
+  frameLevelBin,
+  frameLevelCentre,
+  frameLevelHistogram,
+} from './frame-tally';
+export {
+  type TalkerDesignMethod,
+  type TalkerDesignOptions,
+  DEFAULT_TALKER_TARGET,
+  designForTalker,
+} from './talker-design';

@@ -23,8 +23,7 @@ import { formatStage } from '../spec/format';
 import type { StageSpec } from '../spec/types';
 import { erfc } from '../theory/special';
 import { type FrameShape, FrameSnrModel } from './frame-snr';
-import { talkerDensity } from './level-distribution';
-import { designLloydMax } from './lloyd-max';
+import { designForTalker } from './talker-design';
 
 export type { FrameShape } from './frame-snr';
 
@@ -48,7 +47,7 @@ export interface CandidateSet {
   a?: number[];
   companderBits?: number[];
   g711?: boolean;
-  /** Lloyd-Max quantizers designed for the talker's own long-term density. */
+  /** Lloyd-Max quantizers designed for the talker (designForTalker, the frame shape of the recommendation). */
   designedBits?: number[];
 }
 
@@ -136,14 +135,8 @@ function candidateStages(
     out.push({ family: 'g711', stage: { law: 'g711-mu' } });
     out.push({ family: 'g711', stage: { law: 'g711-a' } });
   }
-  if (set.designedBits.length > 0) {
-    const weights = frames.weights ?? frames.levelsDbov.map(() => 1);
-    const ov = frames.overloadPoint ?? 1;
-    const d = talkerDensity(frames.levelsDbov, weights, shape, ov, ov);
-    for (const bits of set.designedBits) {
-      out.push({ family: 'designed', stage: designLloydMax(d, bits, { name: `talker-lm-${bits}` }).stage });
-    }
-  }
+  for (const bits of set.designedBits)
+    out.push({ family: 'designed', stage: designForTalker(frames, bits, { shape }).stage });
   return out;
 }
 
@@ -263,21 +256,5 @@ export function recommend(frames: FrameLevels, options: RecommendOptions): Recom
     gridDbov: grid ?? [],
     candidates: verdicts,
     chosen: verdicts.findIndex((v) => v.meets),
-  };
-}
-
-/** Frame levels binned to a histogram (bin centres and counts), as the talker statistics keep them. */
-export function frameLevelHistogram(levelsDbov: ArrayLike<number>, binDb = 0.25): FrameLevels {
-  const counts = new Map<number, number>();
-  for (let i = 0; i < levelsDbov.length; i++) {
-    const l = levelsDbov[i];
-    if (!Number.isFinite(l)) continue;
-    const k = Math.floor(l / binDb);
-    counts.set(k, (counts.get(k) ?? 0) + 1);
-  }
-  const keys = [...counts.keys()].sort((a, b) => a - b);
-  return {
-    levelsDbov: keys.map((k) => (k + 0.5) * binDb),
-    weights: keys.map((k) => counts.get(k) ?? 0),
   };
 }

@@ -8,14 +8,16 @@
 // gain, in dBov of its first stage's overload point.
 import { Analyzer, type AnalysisSnapshot } from '../../core/analysis/analyzer';
 import { ChannelPath } from '../../core/channel/path';
+import { FrameLevelTally } from '../../core/design/frame-tally';
+import type { FrameLevels } from '../../core/design/recommend';
 import { ActiveLevelMeter } from '../../core/measure/active-level';
+import { emptySegmentalSnapshot } from '../../core/measure/segmental';
 import { formatStage } from '../../core/spec/format';
 import { parseChannel } from '../../core/spec/parse';
 import type { ChannelSpec } from '../../core/spec/types';
 import { finiteOrNull } from './format';
 import { forEachBlock, INPUT_BLOCK, openInput, type Input, type InputOptions } from './input';
-import { FrameLevels, StageSnr } from './stage-meters';
-import { LEVEL_BIN_DB, LEVEL_MIN_DBOV } from '../../core/measure/levels';
+import { StageSnr } from './stage-meters';
 
 export interface AnalyzeTask extends InputOptions {
   file: string;
@@ -25,7 +27,7 @@ export interface AnalyzeTask extends InputOptions {
   alignDbov: number | null;
   /** O.41 weighting of the error. */
   weighting?: boolean;
-  /** Also return the level spread and the frame levels at the first channel (for design). */
+  /** Also return the talker's active frame levels at the first channel (for design). */
   collectLevels?: boolean;
 }
 
@@ -84,19 +86,15 @@ export interface FileResult {
   inputPeakDbov: number | null;
 }
 
-/** The first channel's talker levels, summed over files by `design`. */
+/**
+ * The talker's active frames at the first channel, as the page records them: the 20 ms
+ * frames its segmental meter found above the silence floor, tallied by FrameLevelTally
+ * (bin centres and counts, dB re the channel's overload point). Empty: no active frame.
+ */
 export interface LevelsResult {
   rate: number;
   overloadPoint: number;
-  /** Level spread: 0.5 dB bins of |x| from -96 dBov, below and above. */
-  loDbov: number;
-  binDb: number;
-  counts: number[];
-  underflow: number;
-  overload: number;
-  /** Frames of 20 ms at or above the P.56 threshold (else above -60 dBov): levels and counts. */
-  frameLevelsDbov: number[];
-  frameWeights: number[];
+  frames: Required<FrameLevels>;
 }
 
 /** Sums that combine over files (energies add; frame SNR means weight by their frames). */
@@ -116,9 +114,6 @@ export interface AnalyzeOutcome {
 }
 
 export type ProgressSink = (done: number, total: number) => void;
-
-/** Frames below this level count as silence when P.56 finds no threshold (the segmental floor). */
-const SILENT_FRAME_DBOV = -60;
 
 async function open(task: AnalyzeTask, specs: readonly ChannelSpec[]): Promise<Input> {
   return openInput(
@@ -245,10 +240,19 @@ export async function analyzeFile(task: AnalyzeTask, progress?: ProgressSink): P
     const path = analyzer.path;
     const stageSnr = specs.map((s) => (s.stages.length > 1 ? new StageSnr(s.stages.length) : null));
     const first = path.atRate[0];
-    const frameLevels =
-      task.collectLevels === true
-        ? new FrameLevels(Math.round(0.02 * first.rateHz), first.quantizers[0].overloadPoint)
-        : null;
+    // The very record the page keeps: the first channel's frame trace, read after each
+    // block (a block holds far fewer frames than the trace's ring).
+    const segmental = analyzer.meters[0].segmental;
+    const tally = task.collectLevels === true ? new FrameLevelTally() : null;
+    const trace = tally === null ? null : emptySegmentalSnapshot(segmental.traceFrames);
+    const record = () => {
+      if (tally === null || trace === null) return;
+      const seen = trace.traceLastFrame;
+      segmental.snapshot(trace);
+      if (trace.traceLastFrame - seen > segmental.traceFrames)
+        throw new Error('internal: frames left the trace before they were tallied');
+      tally.add(trace, segmental.overloadPoint);
+    };
     await forEachBlock(input, (block, n) => {
       analyzer.processBlock(block, n);
       for (let i = 0; i < specs.length; i++) {
@@ -257,10 +261,11 @@ export async function analyzeFile(task: AnalyzeTask, progress?: ProgressSink): P
         const at = path.atRate[i];
         meter.add(at.reference, at.stageOutputs, at.length);
       }
-      frameLevels?.add(first.reference, first.length);
+      record();
       tick(input.position);
     });
     analyzer.finish();
+    record();
     const snap = analyzer.snapshot();
     const talker = snap.talkers[snap.channels[0].talker];
     const result: FileResult = {
@@ -286,19 +291,16 @@ export async function analyzeFile(task: AnalyzeTask, progress?: ProgressSink): P
       segSnrMeanDb: m.segmental.meanDb,
     }));
     const outcome: AnalyzeOutcome = { result, sums };
-    if (frameLevels !== null) {
-      const threshold = talker.activeLongTerm.thresholdDbov ?? SILENT_FRAME_DBOV;
-      const active = frameLevels.above(threshold);
+    if (tally !== null) {
+      const got = tally.levels();
       outcome.levels = {
         rate: first.rateHz,
-        overloadPoint: talker.overloadPoint,
-        loDbov: LEVEL_MIN_DBOV,
-        binDb: LEVEL_BIN_DB,
-        counts: Array.from(talker.levels.counts),
-        underflow: talker.levels.underflow,
-        overload: talker.levels.overload,
-        frameLevelsDbov: active.levelsDbov,
-        frameWeights: active.weights,
+        overloadPoint: segmental.overloadPoint,
+        frames: {
+          levelsDbov: got?.levelsDbov ?? [],
+          weights: got?.weights ?? [],
+          overloadPoint: segmental.overloadPoint,
+        },
       };
     }
     return outcome;

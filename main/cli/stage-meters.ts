@@ -1,5 +1,5 @@
-// Small accumulators the command line keeps beside the Analyzer, fed from the
-// channel path's buffers after each block (Analyzer.path.atRate[i]).
+// An accumulator the command line keeps beside the Analyzer, fed from the channel
+// path's buffers after each block (Analyzer.path.atRate[i]).
 
 /**
  * SNR after each stage of a tandem channel: stage s's output against the channel's
@@ -33,69 +33,5 @@ export class StageSnr {
   snrDb(s: number): number | null {
     const e = this.errors[s];
     return this.signal > 0 && e > 0 ? 10 * Math.log10(this.signal / e) : null;
-  }
-}
-
-/** Frame levels are binned at this width, dB, from FRAME_LEVEL_MIN_DBOV. */
-export const FRAME_LEVEL_BIN_DB = 0.25;
-export const FRAME_LEVEL_MIN_DBOV = -120;
-export const FRAME_LEVEL_MAX_DBOV = 10;
-const FRAME_LEVEL_BINS = Math.round((FRAME_LEVEL_MAX_DBOV - FRAME_LEVEL_MIN_DBOV) / FRAME_LEVEL_BIN_DB);
-
-/**
- * Histogram of the RMS level of consecutive frames (20 ms at the channel rate), dB
- * relative to an overload point: the frame levels the recommender wants. Frames
- * of exact zeros and frames below the lowest bin are counted apart.
- */
-export class FrameLevels {
-  readonly counts = new Float64Array(FRAME_LEVEL_BINS);
-  below = 0;
-  private energy = 0;
-  private fill = 0;
-  private readonly scale: number;
-
-  constructor(
-    readonly frameLength: number,
-    readonly overloadPoint: number,
-  ) {
-    this.scale = 1 / (overloadPoint * overloadPoint * frameLength);
-  }
-
-  add(x: Float64Array, n: number): void {
-    const len = this.frameLength;
-    let e = this.energy;
-    let fill = this.fill;
-    for (let i = 0; i < n; i++) {
-      e += x[i] * x[i];
-      if (++fill === len) {
-        this.count(e);
-        e = 0;
-        fill = 0;
-      }
-    }
-    this.energy = e;
-    this.fill = fill;
-  }
-
-  private count(energy: number): void {
-    const p = energy * this.scale;
-    const db = p > 0 ? 10 * Math.log10(p) : -Infinity;
-    const k = Math.floor((db - FRAME_LEVEL_MIN_DBOV) / FRAME_LEVEL_BIN_DB);
-    if (!(k >= 0)) this.below++;
-    else this.counts[Math.min(k, FRAME_LEVEL_BINS - 1)]++;
-  }
-
-  /** Bin centres (dB) and counts of the frames at or above `fromDbov`. */
-  above(fromDbov: number): { levelsDbov: number[]; weights: number[] } {
-    const levelsDbov: number[] = [];
-    const weights: number[] = [];
-    for (let k = 0; k < FRAME_LEVEL_BINS; k++) {
-      const centre = FRAME_LEVEL_MIN_DBOV + (k + 0.5) * FRAME_LEVEL_BIN_DB;
-      if (this.counts[k] > 0 && centre >= fromDbov) {
-        levelsDbov.push(centre);
-        weights.push(this.counts[k]);
-      }
-    }
-    return { levelsDbov, weights };
   }
 }

@@ -2,7 +2,12 @@
 // only a ring of recent frames: every frame counted once, silent frames left out, and each
 // frame filed at its own level.
 import { describe, expect, it } from 'vitest';
-import { FrameLevelTally } from '../../core/design/frame-tally';
+import {
+  FrameLevelTally,
+  frameLevelBin,
+  frameLevelCentre,
+  frameLevelHistogram,
+} from '../../core/design/frame-tally';
 import { SegmentalSnr } from '../../core/measure/segmental';
 
 const FRAME = 160; // 20 ms at 8 kHz (common practice, no source)
@@ -70,5 +75,47 @@ describe('FrameLevelTally', () => {
 
   it('has nothing to offer before the first active frame', () => {
     expect(new FrameLevelTally().levels()).toBeNull();
+  });
+});
+
+describe('one binning for every record of frame levels', () => {
+  it('files a level in the same bin whichever record takes it, up to +20 dBov', () => {
+    // Levels across the range, a bin edge, and loud frames: +15 dBov (a float input beyond full
+    // scale) once fell into a +10 dBov top bin on the command line alone.
+    const levelsDb = [-59.5, -40, -26.125, -26, -3.01, 0, 6, 15, 19.9];
+    const meter = new SegmentalSnr({ rate: 8000, traceFrames: 50 });
+    feed(meter, levelsDb);
+    const tally = new FrameLevelTally();
+    tally.add(meter.snapshot(), 1);
+    const fromTrace = tally.levels()!;
+    const direct = frameLevelHistogram(levelsDb);
+    // The trace keeps levels as 32-bit floats; each still falls in its own 0.25 dB bin.
+    expect(fromTrace.levelsDbov).toEqual(direct.levelsDbov);
+    expect(fromTrace.weights).toEqual(direct.weights);
+    for (const l of levelsDb)
+      expect(Math.abs(frameLevelCentre(frameLevelBin(l)) - l)).toBeLessThanOrEqual(0.125);
+    // Beyond either end, the end bins (no frame is dropped).
+    expect(frameLevelBin(40)).toBe(frameLevelBin(19.99));
+    expect(frameLevelBin(-300)).toBe(0);
+  });
+
+  it('merges records of several files into the record of one session', () => {
+    const a = new SegmentalSnr({ rate: 8000, traceFrames: 50 });
+    const b = new SegmentalSnr({ rate: 8000, traceFrames: 50 });
+    const both = new SegmentalSnr({ rate: 8000, traceFrames: 50 });
+    feed(a, [-30, -20, -20]);
+    feed(b, [-20, -10, -Infinity]);
+    feed(both, [-30, -20, -20, -20, -10, -Infinity]);
+    const ta = new FrameLevelTally();
+    const tb = new FrameLevelTally();
+    const tBoth = new FrameLevelTally();
+    ta.add(a.snapshot(), 1);
+    tb.add(b.snapshot(), 1);
+    tBoth.add(both.snapshot(), 1);
+    const merged = new FrameLevelTally();
+    merged.merge(ta.levels()!);
+    merged.merge(tb.levels()!);
+    expect(merged.levels()).toEqual(tBoth.levels());
+    expect(merged.frames).toBe(5);
   });
 });

@@ -1,15 +1,15 @@
 // quantiscope design FILE... --bits N | --recommend: quantizers for the files' talker.
 //
 // A first pass runs the files through the channel path to the design rate and keeps
-// the level spread (0.5 dB bins of |x|, the Level spread panel's histogram) and the
-// RMS levels of the active 20 ms frames, summed over all files. --bits designs a
-// Lloyd-Max (or Panter-Dite) table for the level spread as a density; its predicted
-// SNR is the exact integral over that density, and a second pass measures it on the
-// files. --recommend ranks the candidate channels by bit rate for the frame levels.
-import { densityFromDbov } from '../../../core/design/level-distribution';
-import { designLloydMax } from '../../../core/design/lloyd-max';
-import { designPanterDite, type DesignedQuantizer } from '../../../core/design/panter-dite';
-import { recommend, type Recommendation } from '../../../core/design/recommend';
+// the levels of the talker's active 20 ms frames, tallied over all files exactly as the
+// page tallies them (FrameLevelTally over the segmental meter's frame trace). --bits
+// designs for them as the page does (designForTalker: each frame a Laplacian at its
+// level); the predicted SNR is the exact integral over that model, and a second pass
+// measures it on the files. --recommend ranks the candidate channels by bit rate for
+// the same frames, against the page's default target unless told otherwise.
+import { FrameLevelTally } from '../../../core/design/frame-tally';
+import { recommend, type FrameLevels, type Recommendation } from '../../../core/design/recommend';
+import { DEFAULT_TALKER_TARGET, designForTalker } from '../../../core/design/talker-design';
 import { ChannelSpecError } from '../../../core/spec/errors';
 import { formatChannel } from '../../../core/spec/format';
 import { parseRate } from '../../../core/spec/parse';
@@ -35,32 +35,17 @@ import {
   TRACK_OPTION,
 } from './common';
 
-/** Levels of all files together: histograms and frame weights add. */
-export function mergeLevels(all: readonly LevelsResult[]): LevelsResult {
-  const first = all[0];
-  const counts = new Array<number>(first.counts.length).fill(0);
-  const frames = new Map<number, number>();
-  let underflow = 0;
-  let overload = 0;
-  for (const l of all) {
-    l.counts.forEach((c, k) => (counts[k] += c));
-    underflow += l.underflow;
-    overload += l.overload;
-    l.frameLevelsDbov.forEach((db, k) => frames.set(db, (frames.get(db) ?? 0) + l.frameWeights[k]));
-  }
-  const levels = [...frames.keys()].sort((a, b) => a - b);
-  return {
-    ...first,
-    counts,
-    underflow,
-    overload,
-    frameLevelsDbov: levels,
-    frameWeights: levels.map((db) => frames.get(db) ?? 0),
-  };
+/** The active frames of all files in one record, as one session on the page would keep them; null for none. */
+export function mergeLevels(all: readonly LevelsResult[]): FrameLevels | null {
+  const tally = new FrameLevelTally();
+  for (const l of all) tally.merge(l.frames);
+  return tally.levels();
 }
 
 export interface DesignReport {
   files: string[];
+  /** Active 20 ms frames designed for. */
+  frames: number;
   rateHz: number;
   method: 'lloyd-max' | 'panter-dite';
   bits: number;
@@ -116,9 +101,9 @@ export function designTable(d: DesignReport): string[] {
   }
   return [
     `${d.method} quantizer, ${d.bits} bits (${2 * m} levels, odd-symmetric; positive half below) at ${d.rateHz} Hz,`,
-    `designed for the level spread of ${d.files.length} file(s)${d.converged ? '' : ` (stopped after ${d.iterations} steps)`}`,
+    `designed for the ${d.frames} active frames of ${d.files.length} file(s)${d.converged ? '' : ` (stopped after ${d.iterations} steps)`}`,
     ...table(rows),
-    `  predicted SNR ${fixed(d.predictedSnrDb, 2)} dB (the table integrated over the files' level density)`,
+    `  predicted SNR ${fixed(d.predictedSnrDb, 2)} dB (the table integrated over the talker: each frame Laplacian at its level)`,
     `  measured SNR  ${fixed(d.measuredSnrDb, 2)} dB on the files (segmental ${fixed(d.measuredSegSnrDb, 2)} dB)`,
     `  channel text: ${d.channel}`,
     ...(d.tableFile === null ? [] : [`  stored as table:${d.name} in ${d.tableFile}`]),
@@ -151,29 +136,6 @@ export function recommendTable(r: Recommendation): string[] {
   ];
 }
 
-function designFor(
-  levels: LevelsResult,
-  bits: number,
-  method: 'lloyd-max' | 'panter-dite',
-  chosenName: string | undefined,
-): DesignedQuantizer {
-  const density = densityFromDbov(
-    {
-      loDbov: levels.loDbov,
-      binDb: levels.binDb,
-      counts: levels.counts,
-      belowCount: levels.underflow,
-      overloadCount: levels.overload,
-    },
-    levels.overloadPoint,
-    'files',
-  );
-  const name = chosenName ?? `files-${method === 'lloyd-max' ? 'lm' : 'pd'}-${bits}`;
-  return method === 'lloyd-max'
-    ? designLloydMax(density, bits, { name })
-    : designPanterDite(density, bits, name);
-}
-
 function successes(settled: readonly Settled[]): AnalyzeOutcome[] {
   return settled.flatMap((s) => (s.ok ? [s.value] : []));
 }
@@ -202,8 +164,12 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   const share = valueOf(args, 'share');
   if (!wantRecommend && (target !== undefined || share !== undefined))
     throw new UsageError('--target-snr and --share go with --recommend');
-  const targetSnrDb = target === undefined ? 30 : numberOption('target-snr', target, { min: -20, max: 150 });
-  const shareValue = share === undefined ? 0.99 : numberOption('share', share, { min: 1e-6, max: 1 });
+  const targetSnrDb =
+    target === undefined
+      ? DEFAULT_TALKER_TARGET.targetSnrDb
+      : numberOption('target-snr', target, { min: -20, max: 150 });
+  const shareValue =
+    share === undefined ? DEFAULT_TALKER_TARGET.share : numberOption('share', share, { min: 1e-6, max: 1 });
   const shape = choiceOption('shape', valueOf(args, 'shape') ?? 'laplacian', [
     'laplacian',
     'gaussian',
@@ -246,13 +212,15 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
   if (good.length === 0) {
     return exitStatus(ctx, 'design', 'no file could be read, so there is nothing to design for');
   }
-  const levels = mergeLevels(good.map((o) => o.levels as LevelsResult));
+  const frames = mergeLevels(good.map((o) => o.levels as LevelsResult));
+  if (frames === null) return exitStatus(ctx, 'design', 'the files hold no active frames to design for');
+  const frameCount = (frames.weights ?? []).reduce((a, w) => a + w, 0);
   const okFiles = good.map((o) => o.result.file);
   const out: { design?: DesignReport; recommendation?: Recommendation } = {};
   let writeFailure: string | null = null;
 
   if (bits !== null) {
-    const d = designFor(levels, bits, method, name);
+    const d = designForTalker(frames, bits, { method, name });
     const spec: ChannelSpec = { stages: [d.stage], rate };
     const channel = formatChannel(spec);
     const second = await analyseAll(
@@ -280,6 +248,7 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     }
     out.design = {
       files: okFiles,
+      frames: frameCount,
       rateHz: rate,
       method,
       bits,
@@ -296,17 +265,12 @@ async function run(args: ParsedArgs, ctx: CliContext): Promise<number> {
     };
   }
   if (wantRecommend) {
-    if (levels.frameLevelsDbov.length === 0) {
-      return exitStatus(ctx, 'design', 'the files hold no active frames to recommend for');
-    }
-    out.recommendation = recommend(
-      {
-        levelsDbov: levels.frameLevelsDbov,
-        weights: levels.frameWeights,
-        overloadPoint: levels.overloadPoint,
-      },
-      { targetSnrDb, share: shareValue, frameShape: shape, rateHz: rate },
-    );
+    out.recommendation = recommend(frames, {
+      targetSnrDb,
+      share: shareValue,
+      frameShape: shape,
+      rateHz: rate,
+    });
   }
   if (json) ctx.io.out(JSON.stringify(out, null, 2));
   else {
@@ -327,16 +291,19 @@ export const designCommand: Command = {
   summary: "design a quantizer for the files' talker, or recommend a channel",
   synopsis: 'FILE... (--bits N [--table-out FILE [--force]] | --recommend [--target-snr DB] [--share S])',
   description: [
-    'Runs the files through the channel path to the design rate (default 8000 Hz) and gathers their level',
-    'spread and the levels of their active 20 ms frames (at or above the P.56 threshold).',
-    '--bits N designs an N-bit odd-symmetric quantizer for the level spread (Lloyd-Max, or Panter-Dite with',
-    '--method panter-dite) and prints its table, its predicted SNR (exact for the measured density) and the',
-    'SNR measured running the files through it; the channel text it prints goes to --channel elsewhere.',
-    '--table-out FILE also writes the table to a tables file under its name (--name, default files-lm-N or',
-    'files-pd-N), so other commands take it as --table FILE --channel table:NAME. The file is written',
+    'Runs the files through the channel path to the design rate (default 8000 Hz) and gathers the levels of',
+    'their active 20 ms frames (those above the -60 dBov silence floor of the segmental SNR), as the page',
+    'gathers them from a talker, so both design and recommend the same for the same recording.',
+    '--bits N designs an N-bit odd-symmetric quantizer for those frames, each taken as a Laplacian at its',
+    'own level (Lloyd-Max, or Panter-Dite with --method panter-dite), and prints its table, its predicted',
+    'SNR (exact for that talker model) and the SNR measured running the files through it; the channel text',
+    'it prints goes to --channel elsewhere.',
+    '--table-out FILE also writes the table to a tables file under its name (--name, default talker-lm-N or',
+    'talker-pd-N), so other commands take it as --table FILE --channel table:NAME. The file is written',
     'whole and renamed into place; an existing file is replaced only with --force, an input file never.',
     '--recommend ranks uniform, mu-law, A-law, G.711 and designed candidates by bit rate for a target SNR',
-    'met by a share of the active frames (default 30 dB in 99 %) and marks the cheapest that meets it.',
+    `met by a share of the active frames (default ${DEFAULT_TALKER_TARGET.targetSnrDb} dB in ` +
+      `${100 * DEFAULT_TALKER_TARGET.share} %, as on the page) and marks the cheapest that meets it.`,
   ],
   options: [
     { name: 'bits', value: 'N', help: 'design an N-bit quantizer (1 to 12)' },
@@ -345,8 +312,16 @@ export const designCommand: Command = {
     { name: 'table-out', value: 'FILE', help: 'write the designed table to this tables file' },
     { name: 'force', help: 'let --table-out replace an existing file' },
     { name: 'recommend', help: 'rank candidate channels by bit rate' },
-    { name: 'target-snr', value: 'DB', help: 'SNR the frames must reach (default 30)' },
-    { name: 'share', value: 'S', help: 'share of active frames that must reach it, 0..1 (default 0.99)' },
+    {
+      name: 'target-snr',
+      value: 'DB',
+      help: `SNR the frames must reach (default ${DEFAULT_TALKER_TARGET.targetSnrDb})`,
+    },
+    {
+      name: 'share',
+      value: 'S',
+      help: `share of active frames that must reach it, 0..1 (default ${DEFAULT_TALKER_TARGET.share})`,
+    },
     {
       name: 'shape',
       value: 'laplacian|gaussian',
