@@ -1,77 +1,33 @@
-// The renderer page: shell info, the live engine's controls (output muted at start) and
-// the channel presets as core computes them. window.quantiscope is the typed handle the
-// tests (and later the views) use.
-import { pickBridge } from './bridge';
-import { h } from './dom';
-import { AudioEngine, ENGINE_RATE, renderOffline } from './audio/engine';
+// The page: one instrument. A bar on top (engine, source, monitor, output) and a strip
+// under it (channels in one line each, gain, views, theme); the measurements fill the
+// rest; channels and input open in drawers on demand. window.quantiscope is the typed
+// handle the tests use.
 import { Analyzer, type AnalysisSnapshot } from '../core/analysis/analyzer';
-import { enginePanel } from './engine-panel';
-import { channelFigures, type ChannelFigures } from '../core/spec/index';
-import { PAGE_PRESETS } from './presets';
-import { pageLayout } from './views/layout';
+import { pickBridge } from './bridge';
+import { AudioEngine, ENGINE_RATE } from './audio/engine';
+import { renderOffline } from './audio/offline';
+import { palette, type Palette } from './charts/theme';
+import { h } from './dom';
+import { Store } from './settings/store';
+import { TableShelf } from './settings/table-shelf';
+import { channelStrip } from './views/bar/channel-strip';
+import { faultLine } from './views/bar/fault-line';
+import { listenForKeys } from './views/bar/keys';
+import { transportBar } from './views/bar/transport';
+import { channelDrawer } from './views/channels/channel-drawer';
+import { FrameClock } from './views/frame-clock';
+import { inputDrawer } from './views/input/input-drawer';
 import { mountLive } from './views/live/index';
-import { mountChannelSetup } from './views/setup/index';
 import { mountSweepView } from './views/sweep/index';
+import { SweepBoard } from './views/sweep/sweep-board';
+import { TalkerTally } from './views/talker/talker-tally';
 import { mountTradeoff } from './views/tradeoff/index';
 import { ComputeClient } from './workers/client';
 import 'uplot/dist/uPlot.min.css';
 
-const fmt = (n: number, digits: number) => n.toFixed(digits);
-const signed = (n: number, digits: number) => (n >= 0 ? '+' : '') + n.toFixed(digits);
-
-function presetRow(p: ChannelFigures): HTMLTableRowElement {
-  return h(
-    'tr',
-    { 'data-testid': 'preset-row', 'data-preset': p.canonical },
-    h('td', {}, p.title),
-    h('td', { 'data-testid': 'preset-canonical' }, h('code', {}, p.canonical)),
-    h('td', { class: 'num', 'data-testid': 'preset-bits' }, p.bits),
-    h('td', { class: 'num', 'data-testid': 'preset-rate' }, p.rateHz === null ? 'native' : p.rateHz),
-    h(
-      'td',
-      { class: 'num', 'data-testid': 'preset-bitrate' },
-      p.bitRate === null ? '—' : `${fmt(p.bitRate / 1000, 0)} kbit/s`,
-    ),
-    h('td', { class: 'num', 'data-testid': 'preset-overload' }, fmt(p.overloadPoint, 5)),
-    h('td', { class: 'num', 'data-testid': 'preset-overload-pcm16' }, fmt(p.overloadPcm16, 0)),
-    h('td', { class: 'num', 'data-testid': 'preset-load-capacity' }, `${signed(p.loadCapacityDbm0, 2)} dBm0`),
-  );
-}
-
-function presetPanel(): HTMLElement {
-  const rows = PAGE_PRESETS.map((text) => presetRow(channelFigures(text)));
-  const head = h(
-    'tr',
-    {},
-    h('th', {}, 'Channel'),
-    h('th', {}, 'Text form'),
-    h('th', { class: 'num' }, 'Bits'),
-    h('th', { class: 'num' }, 'Rate (Hz)'),
-    h('th', { class: 'num' }, 'Bit rate'),
-    h('th', { class: 'num' }, 'Overload point'),
-    h('th', { class: 'num' }, 'Overload (PCM16)'),
-    h('th', { class: 'num' }, 'Load capacity'),
-  );
-  return h(
-    'section',
-    { class: 'panel', 'data-testid': 'preset-panel' },
-    h('h2', {}, 'Channels'),
-    h(
-      'table',
-      { class: 'presets', 'data-testid': 'preset-table' },
-      h('thead', {}, head),
-      h('tbody', {}, ...rows),
-    ),
-    h(
-      'p',
-      { class: 'hint' },
-      'Overload point on the float scale (16-bit PCM / 32768); load capacity: power of a sine whose peak sits at the overload point.',
-    ),
-  );
-}
-
 export interface QuantiscopeHandle {
   engine: AudioEngine;
+  store: Store;
   renderOffline: (
     samples: Float32Array,
     channels?: { a: string; b: string },
@@ -79,6 +35,11 @@ export interface QuantiscopeHandle {
   ) => ReturnType<typeof renderOffline>;
   /** Core's offline analysis in this page's JavaScript engine (for comparing with the worklet). */
   analyze: (samples: Float32Array, channels: string[], finish?: boolean) => OfflineCore;
+  /** A copy of the next snapshot's figures (tests; the views never copy whole snapshots). */
+  nextSnapshot: () => Promise<AnalysisSnapshot>;
+  /** The chart colours of the current theme, as the charts read them. */
+  palette: () => Palette;
+  tally: TalkerTally;
 }
 
 declare global {
@@ -109,33 +70,6 @@ function analyzeOffline(samples: Float32Array, channels: string[], finish = true
   return { analysis: a.snapshot(), outA, outB };
 }
 
-/** Two views over one engine: Live (what the talker does now) and Sweep (level sweeps against the mask). */
-function viewSwitch(host: HTMLElement): { live: HTMLElement; sweep: HTMLElement } {
-  const live = h('div', { class: 'view', 'data-testid': 'view-live' });
-  const sweep = h('div', { class: 'view', 'data-testid': 'view-sweep', hidden: true });
-  const tabs = (['live', 'sweep'] as const).map((name) => {
-    const b = h(
-      'button',
-      {
-        type: 'button',
-        class: 'view-tab',
-        'data-testid': `view-tab-${name}`,
-        'aria-pressed': String(name === 'live'),
-      },
-      name === 'live' ? 'Live' : 'Sweep',
-    );
-    b.addEventListener('click', () => {
-      live.hidden = name !== 'live';
-      sweep.hidden = name !== 'sweep';
-      for (const t of tabs) t.setAttribute('aria-pressed', String(t === b));
-      window.dispatchEvent(new Event('resize')); // charts take their new box size
-    });
-    return b;
-  });
-  host.append(h('nav', { class: 'view-tabs', 'aria-label': 'Views' }, ...tabs), live, sweep);
-  return { live, sweep };
-}
-
 /** `?record=SECONDS` keeps that much of the received input in the worklet, for tests. */
 function recordSeconds(): number {
   const v = Number(new URLSearchParams(location.search).get('record') ?? 0);
@@ -146,20 +80,88 @@ async function main(): Promise<void> {
   const root = document.getElementById('app');
   if (!root) return;
   const engine = new AudioEngine('worklet.js', undefined, recordSeconds());
+  const tables = new TableShelf();
+  const store = new Store(engine, tables);
+  const clock = new FrameClock();
+  const compute = new ComputeClient();
+  const sweeps = new SweepBoard();
+  const tally = new TalkerTally(engine);
   window.quantiscope = {
     engine,
+    store,
     renderOffline: (samples, channels, options) => renderOffline('worklet.js', samples, channels, options),
     analyze: analyzeOffline,
+    nextSnapshot: () =>
+      new Promise((resolve) => {
+        const off = engine.subscribe((e) => {
+          off();
+          resolve(structuredClone(e.analysis));
+        });
+      }),
+    palette,
+    tally,
   };
-  const layout = pageLayout(root);
-  layout.sidebar.append(enginePanel(engine));
-  const compute = new ComputeClient();
-  const views = viewSwitch(layout.main);
-  mountChannelSetup(views.live, { engine, compute });
-  mountLive(views.live, { engine, compute });
-  mountTradeoff(views.live, { engine, compute });
-  views.live.append(presetPanel());
-  mountSweepView(views.sweep, { engine, compute });
+
+  const input = inputDrawer(store, clock);
+  const channels = channelDrawer(store, compute, tally);
+  // The bars stay on top while the page scrolls to the second row; the measurements take
+  // the height they leave (styles.css reads it from --head-h and --foot-h).
+  const masthead = document.querySelector<HTMLElement>('.masthead');
+  const footer = document.querySelector<HTMLElement>('.footnote');
+  const bar = transportBar(store, clock, { pickFile: input.pickFile });
+  const strip = channelStrip(store, (slot) => channels.focus(slot));
+  if (masthead) {
+    masthead.dataset.testid = 'listen-bar';
+    const brand = masthead.querySelector('h1');
+    const row = (cls: string, label: string, ...groups: (Element | null)[]) =>
+      h('div', { class: `bar ${cls}`, role: 'toolbar', 'aria-label': label }, ...groups);
+    masthead.replaceChildren(
+      row(
+        'first',
+        'Views, engine, source and level',
+        brand,
+        strip.views,
+        bar.engine,
+        bar.source,
+        strip.level,
+        h('div', { class: 'group end' }, strip.theme),
+      ),
+      row('second', 'Monitor and output', bar.monitor, bar.output),
+      row(
+        'third',
+        'Channels and blind draw',
+        strip.channels,
+        bar.hidden,
+        h('div', { class: 'group end' }, bar.meter),
+      ),
+      faultLine(store),
+    );
+  }
+  const follow = (el: HTMLElement | null, name: string) => {
+    if (!el) return;
+    new ResizeObserver(() =>
+      document.documentElement.style.setProperty(name, `${Math.ceil(el.getBoundingClientRect().height)}px`),
+    ).observe(el);
+  };
+  follow(masthead, '--head-h');
+  follow(footer, '--foot-h');
+  const live = h('div', { class: 'view', 'data-testid': 'view-live' });
+  const sweep = h('div', { class: 'view', 'data-testid': 'view-sweep', hidden: true });
+  const views = h('div', { class: 'views' }, live, sweep);
+  root.append(views, channels.el, input.el);
+  const { extra } = mountLive(live, { engine, store, compute, clock, sweeps });
+  mountTradeoff(extra, { engine, store, compute, tally, clock });
+  mountSweepView(sweep, { store, compute, sweeps });
+  const showView = () => {
+    live.hidden = store.page.view !== 'live';
+    sweep.hidden = store.page.view !== 'sweep';
+    document.body.dataset.view = store.page.view;
+    document.body.dataset.drawer = store.page.drawer;
+  };
+  store.subscribe(showView);
+  showView();
+  listenForKeys(store);
+
   const info = await pickBridge().appInfo();
   const shell = document.querySelector<HTMLElement>('[data-testid="shell-info"]');
   if (shell) {

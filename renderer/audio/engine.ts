@@ -5,7 +5,11 @@
 //
 // No method throws: every failure becomes state.fault (code and message), and the
 // engine stays usable, so capture can resume by choosing a source again.
-import type { AnalysisSnapshot } from '../../core/analysis/analyzer';
+//
+// Two routes out, kept apart: the state (settings and status) goes to onChange listeners
+// when it changes, never per snapshot; snapshots go to subscribe() readers, each snapshot
+// once to every reader, which copy what they keep before the envelope goes back to the
+// worklet with its buffers.
 import { parseChannel } from '../../core/spec/parse';
 import { formatChannel } from '../../core/spec/format';
 import { dbm0FromDbov } from '../../core/units/levels';
@@ -35,6 +39,7 @@ import {
   type ToWorklet,
   type WorkletStartOptions,
 } from './worklet/messages';
+import { buffersOf } from './worklet/snapshot-pool';
 
 export { OUTPUT_CAP_DB, OUTPUT_MIN_DB, OUTPUT_START_DB, clampVolumeDb };
 export type { SourceKind, TestSignalSettings };
@@ -46,6 +51,20 @@ export const ALIGN_TARGET_DBOV = -26;
 const INPUT_GAIN_LIMIT_DB = 60;
 
 export type EnginePhase = 'stopped' | 'starting' | 'running' | 'suspended';
+
+/** Quanta between scheduling a buffer source and its first sample: room for the reset message to arrive. */
+const START_LEAD_QUANTA = 12;
+const QUANTUM = 128;
+
+/** A snapshot reader: copies what it keeps; the envelope's arrays go back to the worklet after it returns. */
+export type SnapshotReader = (envelope: SnapshotEnvelope) => void;
+
+export interface HiddenDraw {
+  /** Trial number of the draw now in force (1 for the first). */
+  draw: number;
+  /** Set by Reveal: the channel the draw hides, the seed of the draws and the draw's number. */
+  revealed: { slot: ChannelSlot; seed: number; draw: number } | null;
+}
 
 export interface InputDevice {
   deviceId: string;
@@ -66,14 +85,21 @@ export interface EngineState {
     deviceId: string | null;
     inputChannel: number;
     channelCount: number;
+    /** A buffer source's length in context frames (one pass of the loop), else null. */
+    lengthFrames: number | null;
+    /** Whether the figures restarted exactly at the buffer's first sample (null until known). */
+    aligned: boolean | null;
   };
   testSignal: TestSignalSettings;
+  /** The channels asked for (canonical text); the worklet builds them and crossfades to them. */
   channels: { a: string; b: string };
+  /** The channels the worklet runs now. */
+  inUse: { a: string; b: string };
   monitor: MonitorChoice;
   errorOf: ChannelSlot;
   errorGainDb: number;
-  /** Which channel Hidden plays, once revealed (null until the engineer asks). */
-  hiddenRevealed: ChannelSlot | null;
+  /** The Hidden draw: its number always, which channel only after Reveal. */
+  hidden: HiddenDraw;
   muted: boolean;
   volumeDb: number;
   inputGainDb: number;
@@ -93,20 +119,12 @@ export interface EngineState {
     inputDbm0: number | null;
   };
   howl: { howling: boolean; frequencyHz: number | null };
+  /**
+   * Figures refreshed by every snapshot without telling the listeners (they are the
+   * snapshot route's business): read them with state() when needed.
+   */
   snr: { a: number | null; b: number | null };
   snapshots: number;
-}
-
-export interface OfflineResult {
-  analysis: AnalysisSnapshot;
-  frames: number;
-  input: Float32Array;
-  outA: Float32Array;
-  outB: Float32Array;
-  /** Rendered seconds per wall-clock second. */
-  realTimeFactor: number;
-  /** Whether the howl watch (run when options.live) ever fired. */
-  howlEver: boolean;
 }
 
 const ms = (seconds: number | undefined) =>
@@ -119,13 +137,22 @@ function initialState(): EngineState {
     running: false,
     fault: null,
     notice: null,
-    source: { kind: 'demo', label: 'demo talker', deviceId: null, inputChannel: 0, channelCount: 1 },
+    source: {
+      kind: 'demo',
+      label: 'demo talker',
+      deviceId: null,
+      inputChannel: 0,
+      channelCount: 1,
+      lengthFrames: null,
+      aligned: null,
+    },
     testSignal: { ...DEFAULT_TEST_SIGNAL },
     channels: { a: DEFAULT_CHANNEL_A, b: DEFAULT_CHANNEL_B },
+    inUse: { a: DEFAULT_CHANNEL_A, b: DEFAULT_CHANNEL_B },
     monitor: 'a',
     errorOf: 'a',
     errorGainDb: 0,
-    hiddenRevealed: null,
+    hidden: { draw: 1, revealed: null },
     muted: true,
     volumeDb: OUTPUT_START_DB,
     inputGainDb: 0,
@@ -146,12 +173,12 @@ export class AudioEngine {
   private stream: MediaStream | null = null;
   private track: MediaStreamTrack | null = null;
   private suspending = false;
+  /** The buffer source playing, to play again from its start. */
+  private looping: { buffer: AudioBuffer; kind: SourceKind; label: string } | null = null;
   private readonly listeners = new Set<(s: EngineState) => void>();
-  private snapshotListener: ((s: SnapshotEnvelope) => void) | null = null;
+  private readonly readers = new Set<SnapshotReader>();
   private recordWaiters: ((r: RecordPayload) => void)[] = [];
   private readonly s: EngineState = initialState();
-  /** The latest snapshot's figures (a copy the page may keep). */
-  lastAnalysis: AnalysisSnapshot | null = null;
 
   constructor(
     private readonly workletUrl: string,
@@ -169,8 +196,10 @@ export class AudioEngine {
     return () => this.listeners.delete(listener);
   }
 
-  onSnapshot(listener: ((s: SnapshotEnvelope) => void) | null): void {
-    this.snapshotListener = listener;
+  /** Hands every snapshot to `reader` (in the order readers came), until the returned function is called. */
+  subscribe(reader: SnapshotReader): () => void {
+    this.readers.add(reader);
+    return () => this.readers.delete(reader);
   }
 
   /** The context, for tests and the views' analysers. */
@@ -217,7 +246,7 @@ export class AudioEngine {
           volumeDb: this.s.volumeDb,
           gainDb: this.s.inputGainDb,
           monitor: this.s.monitor,
-          seed: Date.now() % 2147483647,
+          // No seed: the audio thread picks its own, so Hidden cannot be known here before Reveal.
           recordSeconds: this.recordSeconds,
         } satisfies WorkletStartOptions,
       });
@@ -275,11 +304,12 @@ export class AudioEngine {
         this.s.running = true;
         this.s.sampleRate = m.sampleRate;
         this.s.channels = { a: m.a, b: m.b };
+        this.s.inUse = { a: m.a, b: m.b };
         this.s.latency.pathSamples = m.latency;
         this.s.latency.pathMs = (m.latency / m.sampleRate) * 1000;
         break;
       case 'channels':
-        this.s.channels = { a: m.a, b: m.b };
+        this.s.inUse = { a: m.a, b: m.b };
         this.s.latency.pathSamples = m.latency;
         this.s.latency.pathMs = this.s.sampleRate ? (m.latency / this.s.sampleRate) * 1000 : null;
         break;
@@ -287,14 +317,22 @@ export class AudioEngine {
         this.s.monitor = m.choice;
         this.s.errorOf = m.errorOf;
         break;
+      case 'draw':
+        this.s.hidden = { draw: m.draw, revealed: null };
+        break;
       case 'revealed':
-        this.s.hiddenRevealed = m.hidden;
+        this.s.hidden = { draw: m.draw, revealed: { slot: m.hidden, seed: m.seed, draw: m.draw } };
+        break;
+      case 'reset-done':
+        if (this.s.source.lengthFrames !== null) this.s.source.aligned = m.aligned;
         break;
       case 'muted':
         // The worklet's own state is the truth for what reaches the output.
         this.s.muted = m.muted;
         break;
       case 'error':
+        // A refused channel leaves the one in use: the text asked for goes back to it.
+        this.s.channels = { ...this.s.inUse };
         this.s.fault = fault('channel-invalid', m.message);
         break;
       case 'record': {
@@ -314,24 +352,34 @@ export class AudioEngine {
 
   private takeSnapshot(envelope: SnapshotEnvelope): void {
     const a = envelope.analysis;
-    this.lastAnalysis = structuredClone(a);
     this.s.snapshots++;
     const chA = a.channels[0];
     const talker = a.talkers[chA.talker];
     const active = talker.activeWindow.activeLevelDbov;
     this.s.alignment.activeDbov = active;
     this.s.alignment.activeDbm0 = active === null ? null : dbm0FromDbov(active, talker.loadCapacityDbm0);
-    this.s.snr = { a: chA.meter.snrDb, b: a.channels[1].meter.snrDb };
-    this.s.howl = { howling: envelope.howl.howling, frequencyHz: envelope.howl.frequencyHz };
+    this.s.snr.a = chA.meter.snrDb;
+    this.s.snr.b = a.channels[1].meter.snrDb;
     const dbfs = dbfsFromRms(a.input.rms);
     this.s.calibration.inputDbfs = dbfs;
     const offset = this.s.calibration.offsetDb;
     this.s.calibration.inputDbm0 = dbfs === null || offset === null ? null : dbfs + offset;
     if (this.ctx) this.s.latency.outputMs = ms(this.ctx.outputLatency);
-    this.snapshotListener?.(envelope);
+    const howlChanged =
+      envelope.howl.howling !== this.s.howl.howling ||
+      (envelope.howl.howling && envelope.howl.frequencyHz !== this.s.howl.frequencyHz);
+    this.s.howl = { howling: envelope.howl.howling, frequencyHz: envelope.howl.frequencyHz };
+    for (const read of this.readers) {
+      try {
+        read(envelope);
+      } catch (err) {
+        // One faulty view must not keep the envelope from going back.
+        console.error(err);
+      }
+    }
     // Hand the envelope back with its arrays, so the worklet never needs another.
-    this.node?.port.postMessage({ type: 'release', envelope } satisfies ToWorklet, transferOf(envelope));
-    this.emit();
+    this.node?.port.postMessage({ type: 'release', envelope } satisfies ToWorklet, buffersOf(envelope));
+    if (howlChanged) this.emit();
   }
 
   // ---- sources ----
@@ -346,14 +394,29 @@ export class AudioEngine {
       }
     }
     this.sourceNode = null;
+    this.looping = null;
     if (this.track) this.track.onended = null;
     this.stream?.getTracks().forEach((t) => t.stop());
     this.stream = null;
     this.track = null;
   }
 
-  private useDevice(kind: SourceKind, label: string, deviceId: string | null, channelCount: number): void {
-    this.s.source = { kind, label, deviceId, inputChannel: 0, channelCount };
+  private useDevice(
+    kind: SourceKind,
+    label: string,
+    deviceId: string | null,
+    channelCount: number,
+    buffer: { lengthFrames: number; startFrame: number } | null = null,
+  ): void {
+    this.s.source = {
+      kind,
+      label,
+      deviceId,
+      inputChannel: 0,
+      channelCount,
+      lengthFrames: buffer?.lengthFrames ?? null,
+      aligned: null,
+    };
     this.s.calibration.device = deviceId !== null ? `mic:${deviceId}` : `source:${kind}`;
     this.s.calibration.offsetDb = this.calibrations.get(this.s.calibration.device);
     this.s.calibration.inputDbfs = null;
@@ -363,17 +426,34 @@ export class AudioEngine {
     this.s.howl = { howling: false, frequencyHz: null };
     this.send({ type: 'input-channel', channel: 0 });
     this.send({ type: 'live', live: kind === 'microphone' });
-    this.send({ type: 'reset' });
+    this.send(buffer ? { type: 'reset', atFrame: buffer.startFrame } : { type: 'reset' });
   }
 
+  /**
+   * Loops a buffer, its first sample scheduled on a render-quantum boundary a little ahead,
+   * with the figures restarting at that very frame: one pass of the loop is then exactly
+   * the file as the command line reads it, from fresh filters.
+   */
   private playBuffer(buffer: AudioBuffer, kind: SourceKind, label: string): void {
     const ctx = this.ctx!;
     this.detachSource();
     const src = new AudioBufferSourceNode(ctx, { buffer, loop: true });
     src.connect(this.node!);
-    src.start();
+    const now = Math.ceil((ctx.currentTime * ctx.sampleRate) / QUANTUM);
+    const startFrame = (now + START_LEAD_QUANTA) * QUANTUM;
+    src.start(startFrame / ctx.sampleRate);
     this.sourceNode = src;
-    this.useDevice(kind, label, null, buffer.numberOfChannels);
+    this.looping = { buffer, kind, label };
+    this.useDevice(kind, label, null, buffer.numberOfChannels, { lengthFrames: buffer.length, startFrame });
+  }
+
+  /** Plays the looping source again from its first sample, the figures restarting with it. */
+  async rewind(): Promise<boolean> {
+    const l = this.looping;
+    if (!l || !this.ctx || !this.node) return false;
+    this.playBuffer(l.buffer, l.kind, l.label);
+    this.emit();
+    return true;
   }
 
   private async playBuiltIn(kind: 'demo' | 'tone' | 'noise' | 'sweep'): Promise<void> {
@@ -502,13 +582,18 @@ export class AudioEngine {
 
   // ---- channel, monitor, output ----
 
-  /** Checks the text here (for an immediate message) and in the worklet, which builds the path. */
+  /**
+   * Checks the texts here (for an immediate message) and in the worklet, which builds the
+   * path. They must be whole: a stored table's levels are filled in before they get here.
+   */
   setChannels(a: string, b: string): boolean {
     try {
       const ca = formatChannel(parseChannel(a));
       const cb = formatChannel(parseChannel(b));
+      if (ca === this.s.channels.a && cb === this.s.channels.b) return true;
       this.send({ type: 'channels', a: ca, b: cb });
-      if (!this.node) this.s.channels = { a: ca, b: cb };
+      this.s.channels = { a: ca, b: cb };
+      if (!this.node) this.s.inUse = { a: ca, b: cb };
       this.s.fault = this.s.fault?.code === 'channel-invalid' ? null : this.s.fault;
       this.emit();
       return true;
@@ -519,7 +604,6 @@ export class AudioEngine {
   }
 
   setMonitor(choice: MonitorChoice): void {
-    if (choice === 'hidden') this.s.hiddenRevealed = null;
     this.s.monitor = choice;
     this.send({ type: 'monitor', choice });
     this.emit();
@@ -538,6 +622,12 @@ export class AudioEngine {
     this.emit();
   }
 
+  /** The next blind trial: the audio thread draws again which channel Hidden plays. */
+  newDraw(): void {
+    this.send({ type: 'new-draw' });
+  }
+
+  /** Asks the audio thread which channel the current draw hides (answered as state.hidden.revealed). */
   reveal(): void {
     this.send({ type: 'reveal' });
   }
@@ -558,6 +648,13 @@ export class AudioEngine {
     if (!Number.isFinite(db)) return;
     this.s.inputGainDb = Math.max(-INPUT_GAIN_LIMIT_DB, Math.min(INPUT_GAIN_LIMIT_DB, db));
     this.send({ type: 'gain', db: this.s.inputGainDb });
+    this.emit();
+  }
+
+  /** The active level the alignment aims at, dBov at channel A's quantizer. */
+  setAlignTarget(targetDbov: number): void {
+    if (!Number.isFinite(targetDbov)) return;
+    this.s.alignment.targetDbov = Math.max(-60, Math.min(0, targetDbov));
     this.emit();
   }
 
@@ -618,80 +715,4 @@ export class AudioEngine {
     }
     this.emit();
   }
-}
-
-/**
- * The same graph offline: the samples through the channel worklet in an
- * OfflineAudioContext, as fast as the machine goes. The figures are the worklet's
- * own, taken after exactly samples.length frames.
- */
-export async function renderOffline(
-  workletUrl: string,
-  samples: Float32Array,
-  channels: { a: string; b: string } = { a: DEFAULT_CHANNEL_A, b: DEFAULT_CHANNEL_B },
-  options: { record?: boolean; monitor?: MonitorChoice; worklet?: boolean; live?: boolean } = {},
-): Promise<OfflineResult> {
-  const n = Math.max(1, samples.length);
-  const ctx = new OfflineAudioContext(1, n, ENGINE_RATE);
-  const src = new AudioBufferSourceNode(ctx, { buffer: bufferOf(ctx, samples) });
-  let final: Promise<Extract<FromWorklet, { type: 'final' }>> | null = null;
-  if (options.worklet === false) {
-    src.connect(new GainNode(ctx)).connect(ctx.destination);
-  } else {
-    await ctx.audioWorklet.addModule(workletUrl);
-    const node = new AudioWorkletNode(ctx, PROCESSOR_NAME, {
-      numberOfInputs: 1,
-      numberOfOutputs: 1,
-      outputChannelCount: [1],
-      processorOptions: {
-        a: channels.a,
-        b: channels.b,
-        muted: false,
-        monitor: options.monitor ?? 'a',
-        finishAtFrame: samples.length,
-        live: options.live === true,
-        recordSeconds: options.record === false ? 0 : (samples.length + 128) / ENGINE_RATE,
-      } satisfies WorkletStartOptions,
-    });
-    final = new Promise((resolve) => {
-      node.port.onmessage = (e: MessageEvent<FromWorklet>) => {
-        if (e.data.type === 'final') resolve(e.data);
-      };
-    });
-    src.connect(node).connect(ctx.destination);
-  }
-  src.start();
-  const started = performance.now();
-  await ctx.startRendering();
-  const f = final ? await final : null;
-  const wall = (performance.now() - started) / 1000;
-  const empty = new Float32Array(0);
-  return {
-    analysis: f ? f.analysis : (null as unknown as AnalysisSnapshot),
-    frames: f ? f.frames : samples.length,
-    input: f ? f.input : empty,
-    outA: f ? f.outA : empty,
-    outB: f ? f.outB : empty,
-    realTimeFactor: samples.length / ENGINE_RATE / Math.max(wall, 1e-6),
-    howlEver: f ? f.howlEver : false,
-  };
-}
-
-function transferOf(envelope: SnapshotEnvelope): ArrayBuffer[] {
-  const out: ArrayBuffer[] = [];
-  const seen = new Set<unknown>();
-  const walk = (v: unknown): void => {
-    if (v === null || typeof v !== 'object' || seen.has(v)) return;
-    seen.add(v);
-    if (ArrayBuffer.isView(v)) {
-      if (v.buffer instanceof ArrayBuffer && !seen.has(v.buffer)) {
-        seen.add(v.buffer);
-        out.push(v.buffer);
-      }
-      return;
-    }
-    for (const k of Object.keys(v)) walk((v as Record<string, unknown>)[k]);
-  };
-  walk(envelope);
-  return out;
 }

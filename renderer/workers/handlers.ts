@@ -1,6 +1,6 @@
 // What the compute worker does, on core alone: the same function runs in the worker
 // and, when no worker can be started, in the page.
-import { DEFAULT_CANDIDATES, designLloydMax, recommend, talkerDensity } from '../../core/design/index';
+import { DEFAULT_CANDIDATES, designForTalker, recommend } from '../../core/design/index';
 import { formatStage, parseChannel } from '../../core/spec/index';
 import { createQuantizer } from '../../core/quantizers/index';
 import { runSweep } from '../../core/sweep/index';
@@ -8,11 +8,9 @@ import { quantizerSnrCurve } from '../../core/theory/index';
 import { dbovFromDbm0 } from '../../core/units/levels';
 import type { ComputeRequest, ComputeResults, DesignResult, RecommendResult } from './protocol';
 
+/** The design `quantiscope design --bits` makes for the same frames: one function in core. */
 function design(r: Extract<ComputeRequest, { kind: 'design' }>): DesignResult {
-  const ov = r.frames.overloadPoint ?? 1;
-  const weights = r.frames.weights ?? r.frames.levelsDbov.map(() => 1);
-  const d = talkerDensity(r.frames.levelsDbov, weights, 'laplacian', ov, ov);
-  const q = designLloydMax(d, r.bits, { name: `talker-lm-${r.bits}` });
+  const q = designForTalker(r.frames, r.bits);
   return { stage: formatStage(q.stage), predictedSnrDb: q.snrDb };
 }
 
@@ -73,7 +71,7 @@ export function handleCompute(r: ComputeRequest): ComputeResults[ComputeRequest[
     case 'theory': {
       const q = createQuantizer(parseChannel(r.channel).stages[0]);
       const levels = r.levelsDbm0.map((l) => dbovFromDbm0(l, q.loadCapacityDbm0));
-      return Array.from(quantizerSnrCurve(q, 'laplacian', levels).snrDb);
+      return Array.from(quantizerSnrCurve(q, r.model, levels).snrDb);
     }
   }
 }

@@ -2,6 +2,7 @@
 // reply per request, matched by id.
 import type { FrameLevels, Recommendation } from '../../core/design/index';
 import type { SweepMethod, SweepResult } from '../../core/sweep/index';
+import type { DensityShape } from '../../core/theory/densities';
 
 export interface SweepRequest {
   kind: 'sweep';
@@ -28,10 +29,11 @@ export interface RecommendRequest {
   channels: string[];
 }
 
-/** Exact SNR of a channel's first stage for a Laplacian talker at the given levels (dBm0). */
+/** Exact SNR of a channel's first stage for a signal model at the given levels (dBm0, the signal's power). */
 export interface TheoryRequest {
   kind: 'theory';
   channel: string;
+  model: DensityShape;
   levelsDbm0: number[];
 }
 

@@ -116,10 +116,16 @@ describe('faults of the live engine', () => {
     await page.context().close();
   });
 
-  it('a refused channel text', async () => {
+  it('a refused channel text, at the field and at the engine', async () => {
     const page = await openPage([]);
+    await page.getByTestId('open-channels').click();
     await page.getByTestId('channel-a').fill('g711-q');
-    await page.getByTestId('channels-apply').click();
+    await page.getByTestId('channel-a').press('Enter');
+    // The form refuses it where it was typed, with core's message naming the bad part.
+    await poll(() => page.getByTestId('setup-a-text-error').innerText()).toMatch(/g711-q/);
+    expect((await state(page)).channels.a).toBe('g711-mu');
+    // Straight to the engine (as a session file could), it is a fault with the same message.
+    expect(await page.evaluate(() => window.quantiscope.engine.setChannels('g711-q', 'g711-a'))).toBe(false);
     await poll(() => faultCode(page)).toBe('channel-invalid');
     expect(await faultText(page)).toMatch(/g711-q/);
     expect((await state(page)).channels.a).toBe('g711-mu');
@@ -128,9 +134,11 @@ describe('faults of the live engine', () => {
 
   it('calibrates the input with a tone of known level and keeps the offset per device', async () => {
     const page = await openPage([]);
-    await page.getByTestId('tone-dbm0').fill('-10');
     await page.getByTestId('source-kind').selectOption('tone');
     await poll(() => state(page).then((s) => s.source.kind)).toBe('tone');
+    await page.getByTestId('open-input').click();
+    await page.getByTestId('tone-dbm0').fill('-10');
+    await page.getByTestId('tone-dbm0').press('Enter');
     await page.evaluate(() => window.quantiscope.engine.resetFigures());
     await page.waitForTimeout(600);
     await page.getByTestId('calib-known').fill('-10');
@@ -142,7 +150,7 @@ describe('faults of the live engine', () => {
     expect(s.calibration.offsetDb!).toBeCloseTo(-10 - dbfs, 1);
     // Read back after later snapshots: the tone still reads its own level, to a hundredth of a dB.
     expect(s.calibration.inputDbm0!).toBeCloseTo(-10, 2);
-    expect(await page.getByTestId('calib-offset').innerText()).toMatch(/dB$/);
+    await poll(() => page.getByTestId('calib-offset').innerText()).toMatch(/dB$/);
     // Kept for that input: after a reload, the same source finds it again.
     await page.reload();
     await page.waitForSelector('body[data-ready="true"]');

@@ -1,5 +1,5 @@
 // A fake microphone fed from a WAV file this test writes (Chromium's
-// --use-file-for-fake-audio-capture, DESIGN.md's recipe): the worklet records what it
+// --use-file-for-fake-audio-capture, DEVELOPERS.md's recipe): the worklet records what it
 // actually received (Chromium may resample or loop the file), and core run offline on
 // exactly those samples gives the same quantized output and the same figures.
 import type { Browser, Page } from 'playwright-core';
@@ -57,9 +57,11 @@ describe('live capture from a fake microphone', () => {
     await poll(async () => (await state()).running).toBe(true);
     expect((await state()).source.kind).toBe('demo');
     expect(await page.getByTestId('output-state').getAttribute('data-muted')).toBe('true');
+    await page.getByTestId('open-channels').click();
     await page.getByTestId('channel-b').fill('uniform:12@16k');
-    await page.getByTestId('channels-apply').click();
-    await poll(async () => (await state()).channels.b).toBe('uniform:12@16k');
+    await page.getByTestId('channel-b').press('Enter');
+    await poll(async () => (await state()).inUse.b).toBe('uniform:12@16k');
+    await page.keyboard.press('Escape');
     await page.getByTestId('source-kind').selectOption('microphone');
     await poll(async () => (await state()).source.kind).toBe('microphone');
     expect((await state()).fault).toBeNull();
@@ -113,7 +115,9 @@ describe('live capture from a fake microphone', () => {
     await poll(() => page.getByTestId('monitor-state').getAttribute('data-choice')).toBe('hidden');
     expect(await page.getByTestId('hidden-answer').innerText()).toBe('');
     await page.getByTestId('hidden-reveal').click();
-    await poll(() => page.getByTestId('hidden-answer').innerText()).toMatch(/^Hidden is [AB]$/);
+    await poll(() => page.getByTestId('hidden-answer').innerText()).toMatch(
+      /^Hidden is [AB] \(draw 1, seed \d+\)$/,
+    );
     await page.getByTestId('monitor-error').click();
     await poll(() => page.getByTestId('monitor-state').innerText()).toBe('Error of A');
     await page.getByTestId('monitor-a').click();
@@ -137,7 +141,8 @@ describe('live capture from a fake microphone', () => {
     await page.evaluate(() => window.quantiscope.engine.resetFigures());
     await page.waitForTimeout(3500);
     expect(Math.abs((await state()).alignment.activeDbov! + 26)).toBeLessThan(2);
-    expect(await page.getByTestId('readout-active-dbov').innerText()).toMatch(/dBov$/);
+    await page.getByTestId('open-input').click();
+    await poll(() => page.getByTestId('readout-active-dbov').innerText()).toMatch(/dBov$/);
     expect(await page.getByTestId('readout-latency').innerText()).toMatch(/path \d+\.\d+ ms/);
   });
 });

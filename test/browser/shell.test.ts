@@ -10,8 +10,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildAll } from '../../build/build.mjs';
 import { startStaticServer, type StaticServer } from '../../main/browser-shell/server';
 import { createQuantizer } from '../../core/quantizers/index';
-import { formatChannel, parseChannel } from '../../core/spec/index';
+import { CHANNEL_PRESETS, formatChannel, parseChannel } from '../../core/spec/index';
 import { launchChromium } from './chromium';
+import { pngSize } from './page-checks';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const screenshotPath = path.join(root, 'test-output', 'shell.png');
@@ -80,12 +81,15 @@ describe('renderer in the browser shell', () => {
   });
 
   it('lists the presets with figures computed by core', async () => {
+    await page.getByTestId('open-channels').click();
     const rows = page.getByTestId('preset-row');
-    expect(await rows.count()).toBe(5);
+    // One list for every surface: core's presets.
+    expect(await rows.count()).toBe(CHANNEL_PRESETS.length);
     // Expected line figures: G.711 (8000 samples/s, 8 bits: 64 kbit/s; mu-law overload
     // 8159 x 4 in 16-bit PCM, A-law 4096 x 8; load capacity +3.17 / +3.14 dBm0, section 5,
     // from memory); the uniform channel: 12 bits x 8000 samples/s (arithmetic); the
-    // continuous laws and uniform: overload 1.0 and +3.14 dBm0 unless set (issue 2's convention).
+    // continuous laws and uniform: overload 1.0 and +3.14 dBm0 unless set (our convention,
+    // DEVELOPERS.md "Numbers and scales").
     const expected: Record<string, [string, string, string]> = {
       'g711-mu': ['64 kbit/s', '32636', '+3.17 dBm0'],
       'g711-a': ['64 kbit/s', '32768', '+3.14 dBm0'],
@@ -100,6 +104,8 @@ describe('renderer in the browser shell', () => {
       expect(await text('preset-overload-pcm16', row)).toBe(overload);
       expect(await text('preset-load-capacity', row)).toBe(capacity);
     }
+    await page.keyboard.press('Escape');
+    expect(await page.getByTestId('drawer-channels').isVisible()).toBe(false);
   });
 
   it('loads the worklet, which stays silent while muted and quantizes like G.711 when not', async () => {
@@ -154,7 +160,8 @@ describe('renderer in the browser shell', () => {
   it('runs the test tone through the worklet and unmutes on request', async () => {
     await page.getByTestId('engine-start').click();
     await expect.poll(() => page.getByTestId('engine-state').getAttribute('data-running')).toBe('true');
-    expect(await text('engine-state')).toContain('g711-mu');
+    expect(await text('engine-state')).toBe('48 kHz');
+    expect(await text('channel-summary-a-text')).toBe('g711-mu');
     await page.getByTestId('output-toggle').click();
     await expect.poll(() => page.getByTestId('output-state').getAttribute('data-muted')).toBe('false');
     expect(await text('output-state')).toBe('Output live');
@@ -164,8 +171,13 @@ describe('renderer in the browser shell', () => {
     await expect.poll(() => page.getByTestId('output-state').getAttribute('data-muted')).toBe('true');
   });
 
-  it('saves a screenshot', async () => {
+  it('shows the whole page, both rows, in a full-page picture', async () => {
     await mkdir(path.dirname(screenshotPath), { recursive: true });
     await page.screenshot({ path: screenshotPath, fullPage: true });
+    const png = await pngSize(screenshotPath);
+    // The second row (Transfer curve, Trade-off) sits below the first screen: the page is taller than the window.
+    expect(png.width).toBe(1200);
+    expect(png.height).toBeGreaterThan(760 + 300);
+    expect(png.bytes).toBeGreaterThan(40_000);
   });
 });

@@ -4,6 +4,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { Analyzer } from '../../core/analysis/analyzer';
 import { renderTestTone, renderTestNoise, renderLevelSweep } from '../../core/signals/test-signals';
 import { renderDemoTalker } from '../../core/signals/demo-talker';
+import { Xoshiro128 } from '../../core/signals/random';
 import {
   OUTPUT_CAP_DB,
   PROCESSOR_NAME,
@@ -64,6 +65,7 @@ class Rig {
       const inp = new Float32Array(Q);
       inp.set(signal.subarray(b * Q, b * Q + Q));
       this.proc.process([[inp]], [o]);
+      (globalThis as unknown as { currentFrame: number }).currentFrame += Q;
       out.set(o[0].subarray(0, Math.min(Q, signal.length - b * Q)), b * Q);
       this.drain();
     }
@@ -166,21 +168,88 @@ describe('monitor switching', () => {
     expect(rig.of('monitor').at(-1)).toEqual({ type: 'monitor', choice: 'error', errorOf: 'a' });
   });
 
-  it('hides A or B behind a seeded coin and reveals it on request', () => {
-    const picks = (seed: number) => {
+  it('keeps one seeded draw per trial until a new one is asked for, and reveals it with its seed', () => {
+    const draws = (seed: number) => {
       const rig = new Rig({ seed });
       const out: string[] = [];
-      for (let i = 0; i < 8; i++) {
-        rig.send({ type: 'monitor', choice: 'hidden' });
+      for (let i = 0; i < 16; i++) {
+        // Picking Hidden again (and other choices between) plays the same draw.
+        for (const choice of ['hidden', 'a', 'hidden', 'b', 'hidden'] as const)
+          rig.send({ type: 'monitor', choice });
         rig.send({ type: 'reveal' });
-        out.push(rig.of('revealed').at(-1)!.hidden);
+        rig.send({ type: 'reveal' });
+        const [r1, r2] = rig.of('revealed').slice(-2);
+        expect(r1).toEqual(r2);
+        expect(r1.draw).toBe(i + 1);
+        expect(r1.seed).toBe(seed);
+        out.push(r1.hidden);
+        rig.send({ type: 'new-draw' });
+        expect(rig.of('draw').at(-1)).toEqual({ type: 'draw', draw: i + 2 });
       }
-      // The monitor message never says which one it is.
+      // Neither the monitor nor the draw message says which channel it is.
       expect(rig.of('monitor').every((m) => !('hidden' in m))).toBe(true);
+      expect(rig.of('draw').every((m) => Object.keys(m).sort().join() === 'draw,type')).toBe(true);
       return out.join('');
     };
-    expect(picks(7)).toBe(picks(7));
-    expect(new Set(picks(7).split('')).size).toBe(2);
+    const seq = draws(7);
+    expect(draws(7)).toBe(seq);
+    expect(new Set(seq.split('')).size).toBe(2);
+    // The seed and draw number reproduce the draw: draw k is the k-th output of the seeded
+    // generator, even for A, odd for B (our convention, stated in processor.ts).
+    const g = new Xoshiro128(7);
+    expect(Array.from(seq, () => ((g.nextUint32() & 1) === 0 ? 'a' : 'b')).join('')).toBe(seq);
+  });
+
+  it('tells the page nothing that differs between Hidden = A and Hidden = B before Reveal', () => {
+    // Seeds whose first draw hides A, and B (found, not assumed).
+    const first = (seed: number) => ((new Xoshiro128(seed).nextUint32() & 1) === 0 ? 'a' : 'b');
+    const seedA = [1, 2, 3, 4, 5, 6, 7, 8].find((s) => first(s) === 'a')!;
+    const seedB = [1, 2, 3, 4, 5, 6, 7, 8].find((s) => first(s) === 'b')!;
+    const talker = renderDemoTalker(RATE, 1.5, 4);
+    const seen = (seed: number) => {
+      const rig = new Rig({ seed, a: 'g711-mu', b: 'uniform:6' });
+      rig.send({ type: 'mute', muted: false });
+      rig.send({ type: 'volume', db: -12 });
+      rig.send({ type: 'monitor', choice: 'hidden' });
+      const out = rig.run(talker);
+      return { messages: rig.messages, out, rig };
+    };
+    const a = seen(seedA);
+    const b = seen(seedB);
+    // What is heard differs (uniform 6 bits is far noisier than G.711: the draw matters)...
+    let diff = 0;
+    for (let i = 0; i < a.out.length; i++) diff = Math.max(diff, Math.abs(a.out[i] - b.out[i]));
+    expect(diff).toBeGreaterThan(1e-3);
+    // ...but every message, snapshots with their output peak and limiter figures included, is the same.
+    expect(a.messages.length).toBeGreaterThan(30);
+    expect(b.messages).toEqual(a.messages);
+    expect(
+      a.messages.filter((m) => m.type === 'snapshot').some((m) => (m as SnapshotEnvelope).outputPeak > 0),
+    ).toBe(true);
+    // After Reveal they part: the answer names each one's channel.
+    a.rig.send({ type: 'reveal' });
+    b.rig.send({ type: 'reveal' });
+    expect([a.rig.of('revealed')[0].hidden, b.rig.of('revealed')[0].hidden]).toEqual(['a', 'b']);
+  });
+});
+
+describe('scheduled reset', () => {
+  it('restarts the figures exactly at the frame asked for, or at once when that frame has passed', () => {
+    const g = globalThis as unknown as { currentFrame: number };
+    g.currentFrame = 0;
+    const rig = new Rig({});
+    rig.send({ type: 'reset', atFrame: 10 * Q });
+    rig.run(tone((20 * Q) / RATE));
+    expect(rig.of('reset-done')).toEqual([{ type: 'reset-done', frame: 10 * Q, aligned: true }]);
+    // The record keeps what came after the reset: 10 quanta.
+    rig.send({ type: 'fetch-record' });
+    expect(rig.of('record').at(-1)!.frames).toBe(10 * Q);
+    rig.send({ type: 'reset', atFrame: 3 * Q });
+    expect(rig.of('reset-done').at(-1)).toEqual({
+      type: 'reset-done',
+      frame: g.currentFrame,
+      aligned: false,
+    });
   });
 });
 

@@ -4,7 +4,7 @@ import type { AnalysisSnapshot } from '../../../core/analysis/analyzer';
 
 export const PROCESSOR_NAME = 'quantiscope-channel';
 
-/** What the monitor plays. Hidden is A or B behind a seeded coin; Error is one channel's quantization error. */
+/** What the monitor plays. Hidden is A or B behind a seeded draw; Error is one channel's quantization error. */
 export type MonitorChoice = 'ref' | 'a' | 'b' | 'hidden' | 'error';
 export type ChannelSlot = 'a' | 'b';
 
@@ -15,14 +15,20 @@ export type ToWorklet =
   | { type: 'monitor'; choice: MonitorChoice }
   | { type: 'error-of'; slot: ChannelSlot }
   | { type: 'error-gain'; db: number }
+  /** A new Hidden draw: the next trial of a blind comparison (kept until the next one). */
+  | { type: 'new-draw' }
   | { type: 'reveal' }
   | { type: 'mute'; muted: boolean }
   | { type: 'volume'; db: number }
   | { type: 'gain'; db: number }
   | { type: 'input-channel'; channel: number }
   | { type: 'live'; live: boolean }
-  /** Restart every figure (and the recording) from the next block. */
-  | { type: 'reset' }
+  /**
+   * Restart every figure (and the recording): from the next block, or at the context frame
+   * `atFrame` (a quantum boundary), so a buffer source scheduled to start there meets
+   * freshly reset filters and accumulators at its first sample.
+   */
+  | { type: 'reset'; atFrame?: number }
   /** Hand a snapshot envelope back to the pool. */
   | { type: 'release'; envelope: SnapshotEnvelope }
   | { type: 'fetch-record' };
@@ -42,7 +48,11 @@ export interface SnapshotEnvelope {
   frame: number;
   analysis: AnalysisSnapshot;
   howl: HowlReadout;
-  /** Output peak before the limiter this period, and the limiter's deepest gain reduction (dB, <= 0). */
+  /**
+   * Output peak before the limiter this period, and the limiter's deepest gain reduction (dB, <= 0).
+   * While an unrevealed Hidden draw plays, both are taken from the louder of A and B, so they
+   * read the same whichever channel the draw hides.
+   */
   outputPeak: number;
   limiterDb: number;
 }
@@ -62,7 +72,12 @@ export type FromWorklet =
   | { type: 'ready'; sampleRate: number; latency: number; a: string; b: string }
   | { type: 'channels'; a: string; b: string; latency: number }
   | { type: 'monitor'; choice: MonitorChoice; errorOf: ChannelSlot }
-  | { type: 'revealed'; hidden: ChannelSlot }
+  /** A new Hidden draw was made; which channel it hides stays on the audio thread. */
+  | { type: 'draw'; draw: number }
+  /** Reveal: the channel the current draw hides, with the seed and draw number for the record. */
+  | { type: 'revealed'; hidden: ChannelSlot; seed: number; draw: number }
+  /** A reset asked for at a frame took effect; `aligned` when exactly at that frame. */
+  | { type: 'reset-done'; frame: number; aligned: boolean }
   | { type: 'muted'; muted: boolean }
   | { type: 'error'; message: string }
   /** End of an offline render; the recording rides along when one was kept. */
@@ -86,7 +101,10 @@ export interface WorkletStartOptions {
   muted?: boolean;
   volumeDb?: number;
   gainDb?: number;
-  /** Seed of the Hidden coin. */
+  /**
+   * Seed of the Hidden draws. Left out, the audio thread picks its own, so the page cannot
+   * work out a draw before Reveal; tests give one to repeat a run.
+   */
   seed?: number;
   /** Seconds of input (and A/B output) to keep for tests; 0 keeps none. */
   recordSeconds?: number;
@@ -105,11 +123,11 @@ export const DEFAULT_CHANNEL_B = 'g711-a';
 export const OUTPUT_CAP_DB = -12;
 export const OUTPUT_START_DB = -36;
 export const OUTPUT_MIN_DB = -60;
-/** The hard output ceiling, dBFS (the issue's figure). */
+/** The hard output ceiling, dBFS: 1 dB of headroom against inter-sample overs (common practice, no source). */
 export const OUTPUT_CEILING_DBFS = -1;
-/** Crossfade between monitor choices, seconds (the issue allows at most 20 ms). */
+/** Crossfade between monitor choices, seconds: short enough to compare, long enough not to click (common practice, no source). */
 export const MONITOR_FADE_S = 0.01;
-/** Snapshots per second (the issue: about 25). */
+/** Snapshots per second: as often as a display's eye needs, far below the block rate (common practice, no source). */
 export const SNAPSHOTS_PER_SECOND = 25;
 
 export function clampVolumeDb(db: number): number {

@@ -59,6 +59,11 @@ export class OutputStage {
     if (Math.abs(target - st[GAIN]) < 1e-9) st[GAIN] = target;
   }
 
+  /** The ramped volume (0 when muted) at the end of the last block. */
+  get gain(): number {
+    return this.state[GAIN];
+  }
+
   get periodPeak(): number {
     return this.state[PEAK];
   }

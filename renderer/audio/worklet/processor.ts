@@ -7,6 +7,10 @@
 // A channel change builds the new analyzer in the message handler and runs it beside
 // the old one until its filters have filled; the monitor then crossfades from the old
 // mix to the new one, so a change never clicks.
+//
+// Hidden plays A or B by a seeded draw that stays here: one draw per trial, kept until
+// the page asks for a new one, and told to the page only on Reveal. Nothing else the
+// page receives depends on it (the output figures read the louder of A and B meanwhile).
 import { Analyzer } from '../../../core/analysis/analyzer';
 import { Xoshiro128 } from '../../../core/signals/random';
 import { HowlWatch } from './howl-watch';
@@ -33,6 +37,7 @@ import { SnapshotPool } from './snapshot-pool';
 
 // The AudioWorkletGlobalScope names we use; TypeScript ships no lib for this scope.
 declare const sampleRate: number;
+declare const currentFrame: number;
 declare class AudioWorkletProcessor {
   readonly port: {
     postMessage(message: FromWorklet, transfer?: ArrayBuffer[]): void;
@@ -72,6 +77,16 @@ export class ChannelProcessor extends AudioWorkletProcessor {
   private readonly record: RecordRing;
   private readonly howl: HowlWatch;
   private readonly coin: Xoshiro128;
+  private readonly seed: number;
+  /** Trial number of the current Hidden draw (1 for the first). */
+  private draw = 0;
+  private revealed = false;
+  /** Hidden plays and is not revealed: output figures must not tell A from B. */
+  private masked = false;
+  /** Louder of A and B after the volume, this period (read while masked). */
+  private readonly maskedPeak = new Float64Array(1);
+  /** Context frame of a scheduled reset, or -1. */
+  private resetAt = -1;
   private readonly fadeLength: number;
   private readonly snapshotEvery: number;
   private readonly finishAt: number;
@@ -103,7 +118,13 @@ export class ChannelProcessor extends AudioWorkletProcessor {
     this.output.muted = o.muted !== false;
     this.record = new RecordRing(Math.max(0, Math.round((o.recordSeconds ?? 0) * this.rate)));
     this.howl = new HowlWatch(this.rate);
-    this.coin = new Xoshiro128(o.seed ?? 1);
+    // Math.random here, in the constructor, never in process(); a given seed repeats a run.
+    this.seed =
+      o.seed !== undefined && Number.isFinite(o.seed)
+        ? Math.floor(o.seed) >>> 0
+        : Math.floor(Math.random() * 0x7fffffff) + 1;
+    this.coin = new Xoshiro128(this.seed);
+    this.nextDraw();
     this.snapshotEvery = Math.round(this.rate / SNAPSHOTS_PER_SECOND);
     this.finishAt = o.finishAtFrame !== undefined && o.finishAtFrame >= 0 ? Math.floor(o.finishAtFrame) : -1;
     this.port.onmessage = (event) => this.receive(event.data);
@@ -160,8 +181,16 @@ export class ChannelProcessor extends AudioWorkletProcessor {
       case 'error-gain':
         if (Number.isFinite(m.db)) this.mix.errorGain = Math.pow(10, Math.min(40, Math.max(-40, m.db)) / 20);
         return;
+      case 'new-draw':
+        this.nextDraw();
+        if (this.choice === 'hidden') this.mix.request(this.sourceOf('hidden'));
+        this.masked = this.choice === 'hidden';
+        this.port.postMessage({ type: 'draw', draw: this.draw });
+        return;
       case 'reveal':
-        this.port.postMessage({ type: 'revealed', hidden: this.hidden });
+        this.revealed = true;
+        this.masked = false;
+        this.port.postMessage({ type: 'revealed', hidden: this.hidden, seed: this.seed, draw: this.draw });
         return;
       case 'mute':
         this.output.muted = m.muted;
@@ -185,12 +214,14 @@ export class ChannelProcessor extends AudioWorkletProcessor {
         if (!m.live) this.howl.reset();
         return;
       case 'reset':
-        this.stage.analyzer.reset();
-        this.record.reset();
-        this.howl.reset();
-        this.frame = 0;
-        this.sinceSnapshot = 0;
-        this.finished = false;
+        if (m.atFrame !== undefined && Number.isFinite(m.atFrame) && m.atFrame > currentFrame) {
+          this.resetAt = Math.floor(m.atFrame);
+          return;
+        }
+        this.resetAt = -1;
+        this.resetFigures();
+        if (m.atFrame !== undefined)
+          this.port.postMessage({ type: 'reset-done', frame: currentFrame, aligned: false });
         return;
       case 'release':
         this.stage.pool.release(m.envelope);
@@ -206,6 +237,22 @@ export class ChannelProcessor extends AudioWorkletProcessor {
         });
         return;
     }
+  }
+
+  private resetFigures(): void {
+    this.stage.analyzer.reset();
+    this.record.reset();
+    this.howl.reset();
+    this.frame = 0;
+    this.sinceSnapshot = 0;
+    this.finished = false;
+  }
+
+  /** The next trial's draw: which of A and B Hidden plays, by the seeded generator. */
+  private nextDraw(): void {
+    this.hidden = (this.coin.nextUint32() & 1) === 0 ? 'a' : 'b';
+    this.draw++;
+    this.revealed = false;
   }
 
   private sourceOf(choice: MonitorChoice): number {
@@ -224,9 +271,9 @@ export class ChannelProcessor extends AudioWorkletProcessor {
   }
 
   private setMonitor(choice: MonitorChoice, immediate: boolean): void {
-    // Each pick of Hidden tosses the seeded coin again.
-    if (choice === 'hidden') this.hidden = (this.coin.nextUint32() & 1) === 0 ? 'a' : 'b';
+    // Picking Hidden again plays the same draw: a new one comes only when asked for.
     this.choice = choice;
+    this.masked = choice === 'hidden' && !this.revealed;
     const source = this.sourceOf(choice);
     if (immediate) {
       this.mix.current = source;
@@ -240,6 +287,13 @@ export class ChannelProcessor extends AudioWorkletProcessor {
   }
 
   process(inputs: Float32Array[][], outputs: Float32Array[][]): boolean {
+    // A reset scheduled for this quantum's first frame (or one that arrived late).
+    if (this.resetAt >= 0 && currentFrame >= this.resetAt) {
+      const aligned = currentFrame === this.resetAt;
+      this.resetAt = -1;
+      this.resetFigures();
+      this.port.postMessage({ type: 'reset-done', frame: currentFrame, aligned });
+    }
     const input = inputs.length > 0 ? inputs[0] : null;
     const outs = outputs[0];
     const n = outs.length > 0 ? outs[0].length : QUANTUM;
@@ -283,6 +337,17 @@ export class ChannelProcessor extends AudioWorkletProcessor {
       this.output.run(mixBuffer, outs[0], n);
       for (let c = 1; c < outs.length; c++) outs[c].set(outs[0]);
     }
+    if (this.masked && measured > 0) {
+      const a = path.output48[0];
+      const b = path.output48[1];
+      const g = this.output.gain;
+      let peak = this.maskedPeak[0];
+      for (let i = 0; i < measured; i++) {
+        const x = Math.abs(a[i]) > Math.abs(b[i]) ? Math.abs(a[i]) * g : Math.abs(b[i]) * g;
+        if (x > peak) peak = x;
+      }
+      this.maskedPeak[0] = peak;
+    }
 
     this.frame += measured;
     this.sinceSnapshot += measured;
@@ -292,8 +357,16 @@ export class ChannelProcessor extends AudioWorkletProcessor {
       // The output figures are written here, not in fillSnapshot(): that runs 25 times a
       // second and may never be optimised, and there every double would be boxed.
       if (envelope !== null) {
-        envelope.outputPeak = this.output.periodPeak;
-        envelope.limiterDb = 20 * Math.log10(this.output.periodMinGain);
+        if (this.masked) {
+          const peak = this.maskedPeak[0];
+          const ceiling = this.output.ceiling;
+          envelope.outputPeak = peak;
+          envelope.limiterDb = peak > ceiling ? 20 * Math.log10(ceiling / peak) : 0;
+        } else {
+          envelope.outputPeak = this.output.periodPeak;
+          envelope.limiterDb = 20 * Math.log10(this.output.periodMinGain);
+        }
+        this.maskedPeak[0] = 0;
         this.output.resetPeriod();
         this.port.postMessage(envelope, this.stage.pool.transferOf(envelope));
       }

@@ -1,27 +1,34 @@
 // Segment ledger: for A and B side by side, each segment's share of samples and its
-// SNR; the segment holding the most samples is highlighted in each channel.
+// SNR; the segment holding the most samples is marked in each channel.
 import type { AnalysisSnapshot } from '../../../core/analysis/analyzer';
 import { h } from '../../dom';
+import { shortText } from '../../settings/store';
 import { panelBox, type LivePanel } from './panel';
 
-interface Side {
-  label: string;
-  caption: HTMLElement;
-  body: HTMLTableSectionElement;
-  rows: {
-    tr: HTMLTableRowElement;
-    range: HTMLElement;
-    bar: HTMLElement;
-    share: HTMLElement;
-    snr: HTMLElement;
-  }[];
-  text: string;
+interface Row {
+  tr: HTMLTableRowElement;
+  bar: HTMLElement;
+  share: HTMLElement;
+  snr: HTMLElement;
 }
 
-const rangeText = (lo: number, hi: number) =>
-  `${Number.isFinite(lo) ? lo.toFixed(0) : '−∞'} … ${hi.toFixed(0)}`;
+interface Side {
+  slot: 'a' | 'b';
+  table: HTMLTableElement;
+  caption: HTMLElement;
+  body: HTMLTableSectionElement;
+  rows: Row[];
+  /** The channel the rows were built for. */
+  built: string;
+  text: string;
+  edges: Float64Array;
+  counts: Float64Array;
+  snr: Float64Array;
+}
 
-function side(slot: 'a' | 'b'): { table: HTMLElement; s: Side } {
+const edge = (v: number) => (Number.isFinite(v) ? v.toFixed(0) : '−∞');
+
+function side(slot: 'a' | 'b'): Side {
   const caption = h('caption', {}, slot.toUpperCase());
   const body = h('tbody', {});
   const table = h(
@@ -34,81 +41,99 @@ function side(slot: 'a' | 'b'): { table: HTMLElement; s: Side } {
       h(
         'tr',
         {},
-        h('th', {}, 'Seg'),
-        h('th', {}, 'Range (dBov)'),
+        h('th', { class: 'num', title: 'segment' }, 'Seg'),
+        h('th', { class: 'range' }, 'dBov'),
         h('th', { class: 'num' }, 'Share'),
         h('th', { class: 'num' }, 'SNR'),
       ),
     ),
     body,
   );
-  return { table, s: { label: slot.toUpperCase(), caption, body, rows: [], text: '' } };
+  const none = new Float64Array(0);
+  return { slot, table, caption, body, rows: [], built: '', text: '', edges: none, counts: none, snr: none };
 }
 
-function rebuild(s: Side, edges: Float64Array, text: string): void {
+function rebuild(s: Side): void {
   s.rows = [];
   s.body.replaceChildren();
-  s.caption.textContent = `${s.label}: ${text}`;
-  for (let k = edges.length - 2; k >= 0; k--) {
-    const bar = h('span', { class: 'bar' });
-    const share = h('span', { class: 'share-text' }, '—');
-    const row = {
+  const e = s.edges;
+  for (let k = e.length - 2; k >= 0; k--) {
+    const row: Row = {
       tr: h('tr', { 'data-segment': k }),
-      range: h('td', {}, rangeText(edges[k], edges[k + 1])),
-      bar,
-      share,
-      snr: h('td', { class: 'num' }, '—'),
+      bar: h('span', { class: 'bar' }),
+      share: h('span', { class: 'share-text' }, ''),
+      snr: h('td', { class: 'num' }, ''),
     };
     row.tr.append(
       h('td', { class: 'num' }, k),
-      row.range,
-      h('td', { class: 'num share-cell' }, bar, share),
+      h(
+        'td',
+        { class: 'range', title: `${edge(e[k])} to ${edge(e[k + 1])} dBov` },
+        `${edge(e[k])}…${edge(e[k + 1])}`,
+      ),
+      h('td', { class: 'num share-cell' }, row.bar, row.share),
       row.snr,
     );
     s.rows[k] = row;
     s.body.append(row.tr);
   }
-  s.text = text;
+  s.built = s.text;
 }
 
 export function ledgerPanel(): LivePanel {
-  const a = side('a');
-  const b = side('b');
-  const { el, body } = panelBox('panel-ledger', 'Segment ledger');
-  body.classList.add('ledger-pair');
-  body.append(a.table, b.table);
-  const sides = [a.s, b.s];
+  const sides = [side('a'), side('b')];
+  const box = panelBox('panel-ledger', 'Segment ledger');
+  box.body.classList.add('ledger-pair');
+  box.body.append(sides[0].table, sides[1].table);
+  let seen = false;
   return {
-    el,
-    update(snap: AnalysisSnapshot) {
+    el: box.el,
+    take(snap: AnalysisSnapshot) {
       for (let i = 0; i < 2; i++) {
         const s = sides[i];
         const ch = snap.channels[i];
         const seg = ch.meter.segments;
-        if (s.text !== ch.text || s.rows.length !== seg.counts.length) rebuild(s, seg.edgesDbov, ch.text);
+        if (s.counts.length !== seg.counts.length) {
+          s.counts = new Float64Array(seg.counts.length);
+          s.snr = new Float64Array(seg.counts.length);
+        }
+        if (s.text !== ch.text) {
+          s.text = ch.text;
+          s.edges = Float64Array.from(seg.edgesDbov);
+        }
+        s.counts.set(seg.counts);
+        s.snr.set(seg.snrDb);
+      }
+      seen = true;
+    },
+    draw() {
+      if (!seen) return;
+      box.waiting(null);
+      for (const s of sides) {
+        if (s.built !== s.text || s.rows.length !== s.counts.length) rebuild(s);
+        s.caption.textContent = `${s.slot.toUpperCase()}: ${shortText(s.text)}`;
         let total = 0;
         let top = -1;
-        for (let k = 0; k < seg.counts.length; k++) {
-          total += seg.counts[k];
-          if (top < 0 || seg.counts[k] > seg.counts[top]) top = k;
+        for (let k = 0; k < s.counts.length; k++) {
+          total += s.counts[k];
+          if (top < 0 || s.counts[k] > s.counts[top]) top = k;
         }
-        for (let k = 0; k < seg.counts.length; k++) {
+        for (let k = 0; k < s.counts.length; k++) {
           const r = s.rows[k];
-          const pct = total > 0 ? (100 * seg.counts[k]) / total : 0;
-          r.share.textContent = total > 0 ? `${pct.toFixed(1)} %` : '—';
+          const pct = total > 0 ? (100 * s.counts[k]) / total : 0;
+          r.share.textContent = total > 0 ? `${pct.toFixed(1)} %` : '';
           r.bar.style.width = `${pct.toFixed(1)}%`;
-          const snr = seg.snrDb[k];
-          r.snr.textContent = Number.isNaN(snr)
-            ? '—'
-            : snr === Infinity
-              ? 'no error'
-              : `${snr.toFixed(1)} dB`;
+          const snr = s.snr[k];
+          r.snr.textContent = Number.isNaN(snr) ? '' : snr === Infinity ? 'no error' : `${snr.toFixed(1)} dB`;
           r.tr.classList.toggle('top', total > 0 && k === top);
         }
-        const table = i === 0 ? a.table : b.table;
-        table.dataset.topSegment = total > 0 ? String(top) : '';
-        table.dataset.topShare = total > 0 ? ((100 * seg.counts[top]) / total).toFixed(2) : '';
+        s.table.dataset.topSegment = total > 0 ? String(top) : '';
+        s.table.dataset.topShare = total > 0 ? ((100 * s.counts[top]) / total).toFixed(2) : '';
       }
+    },
+    clear() {
+      seen = false;
+      box.waiting('Waiting for audio: press Start audio.');
     },
   };
 }

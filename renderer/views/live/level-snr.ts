@@ -1,127 +1,156 @@
-// Level/SNR curve on a dBm0 grid: theory of A and B (Laplacian talker), the live
-// signal's frame SNRs binned by frame level, the last sweep if one ran, and the
-// acceptance mask (G.712 sine method unless replaced).
+// Level/SNR curve on a dBm0 grid: the theory of A and B for a signal model the user
+// picks (sine, Gaussian, or Laplacian as a speech-like model), the talker's frame SNRs
+// binned by frame level, and, with the sine model only, the G.712 mask (a sine-method
+// mask) and the last sine sweep; with the Gaussian model the last noise sweep.
+import type uPlot from 'uplot';
 import type { AnalysisSnapshot } from '../../../core/analysis/analyzer';
-import { G712_SINE_MASK, maskLimitAt, type Mask } from '../../../core/sweep/mask';
-import type { SweepResult } from '../../../core/sweep/sweep';
-import { axis, liveChart, stroke, withUnit } from '../charts';
+import { G712_SINE_MASK, maskLimitAt } from '../../../core/sweep/mask';
+import { h } from '../../dom';
+import { axis, boxChart, cursorValue, fmt } from '../../charts/chart';
+import { legend } from '../../charts/legend';
+import { STYLES, slotStyle, styledSeries } from '../../charts/series';
+import { shortText, type Store, type TheoryModel } from '../../settings/store';
+import type { ComputeClient } from '../../workers/client';
+import type { SweepBoard } from '../sweep/sweep-board';
 import { ChannelHistory, GRID_MIN_DBM0, GRID_POINTS } from './history';
 import { panelBox, type LivePanel } from './panel';
-import type { ComputeClient } from '../../workers/client';
 
-export interface LevelSnrPanel extends LivePanel {
-  showSweep(result: SweepResult | null): void;
-  setMask(mask: Mask): void;
-}
+export const MODEL_LABELS: Record<TheoryModel, string> = {
+  sine: 'sine',
+  gaussian: 'Gaussian',
+  laplacian: 'Laplacian (speech-like)',
+};
 
-/** Theory curves come from the compute worker: 65536-cell uniform tables take a while. */
-export function levelSnrPanel(compute: ComputeClient): LevelSnrPanel {
-  const { el, body } = panelBox('panel-level-snr', 'Level / SNR curve');
+/** The sweep method whose points belong beside a model's theory. */
+const SWEEP_OF: Record<TheoryModel, 'sine' | 'noise' | null> = {
+  sine: 'sine',
+  gaussian: 'noise',
+  laplacian: null,
+};
+
+// Series: theory A, theory B, frames A, frames B, sweep A, sweep B, mask.
+const MASK = 6;
+
+export function levelSnrPanel(store: Store, compute: ComputeClient, sweeps: SweepBoard): LivePanel {
+  const model = h(
+    'select',
+    { 'data-testid': 'level-snr-model', 'aria-label': 'Signal model of the theory lines' },
+    ...(['sine', 'gaussian', 'laplacian'] as const).map((m) =>
+      h('option', { value: m }, `theory: ${MODEL_LABELS[m]}`),
+    ),
+  );
+  model.addEventListener('change', () => store.setPage({ model: model.value as TheoryModel }));
+  const box = panelBox('panel-level-snr', 'Level/SNR curve', model);
+  const { el, body } = box;
+  const key = legend(
+    [
+      { label: 'theory A', style: slotStyle(0, 'theory') },
+      { label: 'theory B', style: slotStyle(1, 'theory') },
+      { label: 'talker frames A', style: slotStyle(0, 'points') },
+      { label: 'talker frames B', style: slotStyle(1, 'points') },
+      { label: 'sweep A', style: slotStyle(0, 'sweep') },
+      { label: 'sweep B', style: slotStyle(1, 'sweep') },
+      { label: 'G.712 mask (sine method)', style: STYLES.mask },
+    ],
+    'legend-level-snr',
+  );
+  const plotBox = h('div', { class: 'plot' });
+  body.append(key.el, plotBox);
+
   const x = Float64Array.from({ length: GRID_POINTS }, (_, i) => GRID_MIN_DBM0 + i);
-  // theory A, theory B, measured A, measured B, sweep, mask
-  const ys = [0, 1, 2, 3, 4, 5].map(() => new Array<number | null>(GRID_POINTS).fill(null));
+  const ys = [0, 1, 2, 3, 4, 5, 6].map(() => new Array<number | null>(GRID_POINTS).fill(null));
+  const maskLine = Array.from(x, (l) => maskLimitAt(G712_SINE_MASK, l));
   const hist = [new ChannelHistory(), new ChannelHistory()];
   const texts = ['', ''];
-  let sweepLabel = 'last sweep';
-  const dots = (size: number) => ({ show: true, size, width: 1 });
-  const chart = liveChart(
-    body,
+  const theory = new Map<string, (number | null)[]>();
+  const asked = new Set<string>();
+  let seen = false;
+  let drawing: { invalidate(): void } | null = null;
+
+  const readout = (u: uPlot) => {
+    const at = cursorValue(u, 0);
+    const i = u.cursor.idx;
+    if (at === null || i === null || i === undefined) return key.readout('');
+    const parts = [
+      `${at.toFixed(0)} dBm0: theory A ${fmt(ys[0][i], 1, 'dB')}`,
+      `B ${fmt(ys[1][i], 1, 'dB')}`,
+    ];
+    if (ys[2][i] !== null || ys[3][i] !== null)
+      parts.push(`frames A ${fmt(ys[2][i], 1, 'dB')}`, `B ${fmt(ys[3][i], 1, 'dB')}`);
+    if (store.page.model === 'sine' && ys[MASK][i] !== null) parts.push(`mask ${fmt(ys[MASK][i], 0, 'dB')}`);
+    key.readout(parts.join(' · '));
+  };
+  const chart = boxChart(
+    plotBox,
     {
       scales: { x: { time: false }, y: { range: [-10, 70] } },
       axes: [axis('input level (dBm0)'), axis('SNR (dB)')],
       series: [
-        { label: 'level', value: withUnit('dBm0', 0) },
-        {
-          label: 'theory A',
-          stroke: stroke('a'),
-          width: 1.5,
-          value: withUnit('dB'),
-          points: { show: false },
-        },
-        {
-          label: 'theory B',
-          stroke: stroke('b'),
-          width: 1.5,
-          value: withUnit('dB'),
-          points: { show: false },
-        },
-        {
-          label: 'live A',
-          stroke: stroke('a'),
-          width: 0,
-          paths: () => null,
-          points: dots(5),
-          value: withUnit('dB'),
-        },
-        {
-          label: 'live B',
-          stroke: stroke('b'),
-          width: 0,
-          paths: () => null,
-          points: dots(5),
-          value: withUnit('dB'),
-        },
-        {
-          label: sweepLabel,
-          stroke: stroke('reference'),
-          width: 1,
-          points: dots(6),
-          value: withUnit('dB'),
-          spanGaps: true,
-        },
-        {
-          label: 'mask',
-          stroke: stroke('mask'),
-          width: 2,
-          dash: [6, 3],
-          value: withUnit('dB'),
-          points: { show: false },
-        },
+        {},
+        styledSeries('theory A', slotStyle(0, 'theory')),
+        styledSeries('theory B', slotStyle(1, 'theory')),
+        styledSeries('frames A', slotStyle(0, 'points')),
+        styledSeries('frames B', slotStyle(1, 'points')),
+        styledSeries('sweep A', slotStyle(0, 'sweep'), { spanGaps: true }),
+        styledSeries('sweep B', slotStyle(1, 'sweep'), { spanGaps: true }),
+        styledSeries('mask', STYLES.mask),
       ],
+      hooks: { setCursor: [readout] },
     },
     [x, ...ys],
   );
-  const setMask = (mask: Mask) => {
-    for (let i = 0; i < GRID_POINTS; i++) ys[5][i] = maskLimitAt(mask, x[i]);
-  };
-  setMask(G712_SINE_MASK);
-  const asked = ['', ''];
-  const theoryFor = (c: number, text: string) => {
-    ys[c].fill(null);
-    asked[c] = text;
+
+  const theoryKey = (m: TheoryModel, text: string) => `${m}|${text}`;
+  const askTheory = (m: TheoryModel, text: string) => {
+    const k = theoryKey(m, text);
+    if (theory.has(k) || asked.has(k)) return;
+    asked.add(k);
     compute
-      .run({ kind: 'theory', channel: text, levelsDbm0: Array.from(x) })
+      .run({ kind: 'theory', channel: text, model: m, levelsDbm0: Array.from(x) })
       .then((snr) => {
-        if (asked[c] !== text) return; // the channel changed again meanwhile
-        for (let i = 0; i < GRID_POINTS; i++) ys[c][i] = Number.isFinite(snr[i]) ? snr[i] : null;
-        el.dataset.theory = String(Number(el.dataset.theory ?? 0) + 1);
+        theory.set(
+          k,
+          snr.map((v) => (Number.isFinite(v) ? v : null)),
+        );
+        el.dataset.theory = String(theory.size);
+        drawing?.invalidate();
       })
       .catch(() => {
-        // A refused channel has no curve; the setup form says why.
-      });
+        // A refused channel has no curve; the channel form says why.
+      })
+      .finally(() => asked.delete(k));
   };
-  return {
+
+  const showModel = () => {
+    if (model.value !== store.page.model) model.value = store.page.model;
+    el.dataset.model = store.page.model;
+    drawing?.invalidate();
+  };
+  store.subscribe(showModel);
+  sweeps.onChange(() => drawing?.invalidate());
+
+  const panel: LivePanel = {
     el,
-    setMask,
-    showSweep(result: SweepResult | null) {
-      ys[4].fill(null);
-      if (!result) return;
-      for (const p of result.points) {
-        const i = Math.round(p.dbm0 - GRID_MIN_DBM0);
-        if (i >= 0 && i < GRID_POINTS) ys[4][i] = p.inBandDb;
-      }
-      sweepLabel = `sweep ${result.channel}`;
-      el.dataset.sweep = result.channel;
+    bind(d) {
+      drawing = d;
+      showModel();
     },
-    update(a: AnalysisSnapshot) {
+    take(a: AnalysisSnapshot) {
       for (let c = 0; c < 2; c++) {
-        const text = a.channels[c].text;
-        if (texts[c] !== text) {
-          texts[c] = text;
-          theoryFor(c, text);
-        }
+        texts[c] = a.channels[c].text;
+        hist[c].take(a, c);
+      }
+      seen = true;
+    },
+    draw() {
+      const m = store.page.model;
+      for (let c = 0; c < 2; c++) {
+        // Before the first snapshot the theory of the channels asked for is already worth seeing.
+        const t = texts[c] || store.audio.channels[c === 0 ? 'a' : 'b'];
+        const curve = theory.get(theoryKey(m, t));
+        if (!curve) askTheory(m, t);
+        for (let i = 0; i < GRID_POINTS; i++) ys[c][i] = curve ? curve[i] : null;
         const hc = hist[c];
-        hc.take(a, c);
         let lowest = -1;
         for (let i = 0; i < GRID_POINTS; i++) {
           const n = hc.binCount[i];
@@ -129,8 +158,41 @@ export function levelSnrPanel(compute: ComputeClient): LevelSnrPanel {
           if (n > 0 && lowest < 0) lowest = i;
         }
         if (c === 0) el.dataset.lowestLiveDbm0 = lowest < 0 ? '' : String(x[lowest]);
+        key.rename(c, `theory ${c === 0 ? 'A' : 'B'} ${shortText(t)}, ${MODEL_LABELS[m]}`);
       }
+      const method = SWEEP_OF[m];
+      const results = sweeps.results;
+      const sweepShown = method !== null && results !== null && results[0]?.stimulus.method === method;
+      for (let c = 0; c < 2; c++) {
+        const row = ys[4 + c];
+        row.fill(null);
+        if (!sweepShown) continue;
+        const r = results[c];
+        if (!r) continue;
+        for (const p of r.points) {
+          const i = Math.round(p.dbm0 - GRID_MIN_DBM0);
+          if (i >= 0 && i < GRID_POINTS && Math.abs(p.dbm0 - x[i]) < 1e-9) row[i] = p.inBandDb;
+        }
+        key.rename(
+          4 + c,
+          `sweep ${c === 0 ? 'A' : 'B'} (${method === 'sine' ? 'sine, in-band' : 'noise, in-band'})`,
+        );
+      }
+      const maskShown = m === 'sine';
+      for (let i = 0; i < GRID_POINTS; i++) ys[MASK][i] = maskShown ? maskLine[i] : null;
+      key.show(4, sweepShown);
+      key.show(5, sweepShown);
+      key.show(MASK, maskShown);
+      el.dataset.mask = String(maskShown);
+      el.dataset.sweep = sweepShown ? (results?.[0]?.channel ?? '') : '';
+      if (seen) box.waiting(null);
+      else box.waiting('Theory shown; talker frames appear once audio runs.');
       chart.plot.setData([x, ...ys]);
     },
+    clear() {
+      seen = false;
+      for (const hc of hist) hc.reset();
+    },
   };
+  return panel;
 }

@@ -9,17 +9,17 @@ import { fixed, panelBox, type LivePanel } from './panel';
 const LAMP_HOLD_MS = 1500;
 
 function cell(testId: string): HTMLElement {
-  return h('span', { class: 'meter-value num', 'data-testid': testId }, '—');
+  return h('span', { class: 'meter-value num', 'data-testid': testId }, '');
 }
 
+const ROWS = [
+  ['meter-peak', 'Peak'],
+  ['meter-rms', 'RMS'],
+  ['meter-active', 'Active (P.56)'],
+] as const;
+
 export function metersPanel(): LivePanel {
-  const { el, body } = panelBox('panel-meters', 'Meters');
-  const rows: [string, string][] = [
-    ['meter-peak', 'Peak'],
-    ['meter-rms', 'RMS'],
-    ['meter-active', 'Active level (P.56)'],
-  ];
-  const values = new Map<string, [HTMLElement, HTMLElement]>();
+  const box = panelBox('panel-meters', 'Meters');
   const grid = h(
     'div',
     { class: 'meter-grid' },
@@ -27,12 +27,12 @@ export function metersPanel(): LivePanel {
     h('span', { class: 'meter-unit' }, 'dBov'),
     h('span', { class: 'meter-unit' }, 'dBm0'),
   );
-  for (const [id, label] of rows) {
+  const cells = ROWS.map(([id, label]) => {
     const ov = cell(`${id}-dbov`);
     const m0 = cell(`${id}-dbm0`);
-    values.set(id, [ov, m0]);
     grid.append(h('span', { class: 'meter-label' }, label), ov, m0);
-  }
+    return [ov, m0] as const;
+  });
   const activity = cell('meter-activity');
   const crest = cell('meter-crest');
   const lamps = (['a', 'b'] as const).map((slot) => {
@@ -40,17 +40,17 @@ export function metersPanel(): LivePanel {
     const lamp = h(
       'span',
       { class: 'lamp', 'data-testid': `meter-overload-${slot}`, 'data-lit': 'false', role: 'status' },
-      `Overload ${slot.toUpperCase()}`,
+      `Overload ${slot.toUpperCase()} `,
       count,
     );
     return { lamp, count, last: 0, litUntil: 0 };
   });
-  body.append(
+  box.body.append(
     grid,
     h(
       'div',
       { class: 'meter-grid two' },
-      h('span', { class: 'meter-label' }, 'Activity factor'),
+      h('span', { class: 'meter-label' }, 'Activity'),
       activity,
       h('span', { class: 'meter-label' }, 'Crest factor'),
       crest,
@@ -59,36 +59,54 @@ export function metersPanel(): LivePanel {
     h(
       'p',
       { class: 'hint' },
-      'Talker at channel A’s quantizer, after the input gain; peak and RMS over the last interval.',
+      'Talker at A’s quantizer, after the input gain; peak and RMS over the last 0.1 s.',
     ),
   );
+  const v = { peak: null as number | null, rms: null as number | null, active: null as number | null };
+  let lc = 0;
+  let af: number | null = null;
+  let crestDb: number | null = null;
+  const overloads = [0, 0];
+  let seen = false;
   return {
-    el,
-    update(a: AnalysisSnapshot) {
-      const ch = a.channels[0];
-      const t = a.talkers[ch.talker];
-      const lc = t.loadCapacityDbm0;
-      const put = (id: string, dbov: number | null) => {
-        const [ov, m0] = values.get(id)!;
+    el: box.el,
+    take(a: AnalysisSnapshot) {
+      const t = a.talkers[a.channels[0].talker];
+      lc = t.loadCapacityDbm0;
+      v.peak = t.meter.momentaryPeakDbov;
+      v.rms = t.meter.momentaryRmsDbov;
+      v.active = t.activeWindow.activeLevelDbov;
+      af = t.activeWindow.activityFactor;
+      crestDb = t.meter.crestDb;
+      const now = performance.now();
+      for (let i = 0; i < 2; i++) {
+        const n = a.channels[i].meter.overloads;
+        if (n > overloads[i]) lamps[i].litUntil = now + LAMP_HOLD_MS;
+        overloads[i] = n;
+      }
+      seen = true;
+    },
+    draw() {
+      if (!seen) return;
+      box.waiting(null);
+      const values = [v.peak, v.rms, v.active];
+      cells.forEach(([ov, m0], i) => {
+        const dbov = values[i];
         ov.textContent = fixed(dbov, 1, 'dBov');
         m0.textContent = fixed(dbov === null ? null : dbm0FromDbov(dbov, lc), 1, 'dBm0');
         ov.dataset.value = dbov === null ? '' : dbov.toFixed(2);
-      };
-      put('meter-peak', t.meter.momentaryPeakDbov);
-      put('meter-rms', t.meter.momentaryRmsDbov);
-      put('meter-active', t.activeWindow.activeLevelDbov);
-      const af = t.activeWindow.activityFactor;
+      });
       activity.textContent = af === null ? 'no speech' : `${(100 * af).toFixed(0)} %`;
-      crest.textContent = fixed(t.meter.crestDb, 1, 'dB');
+      crest.textContent = fixed(crestDb, 1, 'dB');
       const now = performance.now();
-      for (let i = 0; i < 2; i++) {
-        const l = lamps[i];
-        const n = a.channels[i].meter.overloads;
-        if (n > l.last) l.litUntil = now + LAMP_HOLD_MS;
-        l.last = n;
-        l.count.textContent = String(n);
+      lamps.forEach((l, i) => {
+        l.count.textContent = String(overloads[i]);
         l.lamp.dataset.lit = String(now < l.litUntil);
-      }
+      });
+    },
+    clear() {
+      seen = false;
+      box.waiting('Waiting for audio: press Start audio.');
     },
   };
 }

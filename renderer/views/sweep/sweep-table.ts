@@ -1,6 +1,7 @@
 // The pass/fail table of a sweep: one row per level, A and B side by side.
 import { SWEEP_CEILING_DB, SWEEP_FLOOR_DB, type SweepResult } from '../../../core/sweep/index';
 import { h } from '../../dom';
+import { shortText } from '../../settings/store';
 
 const db = (v: number | null) => (v === null ? '—' : `${v.toFixed(1)} dB`);
 /** The sweep holds a silent output at its floor and an error-free one at its ceiling. */
@@ -50,7 +51,11 @@ export function sweepTable(results: SweepResult[]): HTMLTableElement {
   return h(
     'table',
     { class: 'sweep-table', 'data-testid': 'sweep-table' },
-    h('caption', {}, `A ${a.channel} · B ${b.channel}: in-band signal to total distortion`),
+    h(
+      'caption',
+      {},
+      `A ${shortText(a.channel)} · B ${shortText(b.channel)}: in-band signal to total distortion`,
+    ),
     h('thead', {}, head),
     h('tbody', {}, ...rows),
   );
@@ -61,8 +66,8 @@ export function sweepSummary(r: SweepResult, slot: string): HTMLElement {
   const j = r.judgement;
   const text =
     j === null || j.judged === 0
-      ? `${slot.toUpperCase()} ${r.channel}: no mask applies`
-      : `${slot.toUpperCase()} ${r.channel}: ${j.pass ? 'PASS' : 'FAIL'} against ${j.mask.name} ` +
+      ? `${slot.toUpperCase()} ${shortText(r.channel)}: no mask applies`
+      : `${slot.toUpperCase()} ${shortText(r.channel)}: ${j.pass ? 'PASS' : 'FAIL'} against ${j.mask.name} ` +
         `(${j.failed} of ${j.judged} levels fail; worst margin ${j.worstMarginDb?.toFixed(2)} dB at ${j.worstDbm0} dBm0)`;
   return h(
     'p',

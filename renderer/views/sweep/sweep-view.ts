@@ -1,15 +1,17 @@
 // The Sweep view: a sine or noise sweep of channels A and B (core's runSweep in the
 // compute worker), drawn with its mask and judged level by level.
 import type { SweepMethod } from '../../../core/sweep/index';
-import type { AudioEngine } from '../../audio/engine';
 import { h } from '../../dom';
-import { ComputeClient } from '../../workers/client';
+import type { Store } from '../../settings/store';
+import type { ComputeClient } from '../../workers/client';
 import { SweepChart } from './sweep-chart';
+import type { SweepBoard } from './sweep-board';
 import { sweepSummary, sweepTable } from './sweep-table';
 
 export interface SweepViewOptions {
-  engine: AudioEngine;
-  compute?: ComputeClient;
+  store: Store;
+  compute: ComputeClient;
+  sweeps: SweepBoard;
 }
 
 function numberField(
@@ -23,9 +25,7 @@ function numberField(
 }
 
 export function mountSweepView(container: HTMLElement, options: SweepViewOptions): { destroy(): void } {
-  const { engine } = options;
-  const compute = options.compute ?? new ComputeClient();
-  const ownCompute = options.compute === undefined;
+  const { store, compute, sweeps } = options;
   const method = h(
     'select',
     { 'data-testid': 'sweep-method', 'aria-label': 'Sweep stimulus' },
@@ -41,14 +41,12 @@ export function mountSweepView(container: HTMLElement, options: SweepViewOptions
   const summaries = h('div', { class: 'sweep-summaries', 'data-testid': 'sweep-summaries' });
   const tableHost = h('div', { class: 'sweep-table-host', 'data-testid': 'sweep-table-host' });
   // 64 rows by default: the table scrolls beside a chart that stays in view.
-  tableHost.style.maxHeight = '24rem';
-  tableHost.style.overflowY = 'auto';
   tableHost.tabIndex = 0;
   const chart = new SweepChart(chartHost);
   let alive = true;
 
   run.addEventListener('click', () => {
-    const { a, b } = engine.state().channels;
+    const { a, b } = store.audio.channels;
     const request = {
       kind: 'sweep' as const,
       channels: [a, b],
@@ -59,15 +57,15 @@ export function mountSweepView(container: HTMLElement, options: SweepViewOptions
     };
     run.disabled = true;
     status.dataset.state = 'running';
-    status.textContent = `Sweeping A ${a} and B ${b}…`;
+    status.textContent = 'Sweeping A and B…';
     const started = performance.now();
     compute
       .run(request)
       .then((results) => {
         if (!alive) return;
         chart.show(results);
-        // The Live view's Level/SNR curve shows the last sweep of channel A.
-        document.dispatchEvent(new CustomEvent('quantiscope:sweep', { detail: results[0] }));
+        // The Live view's Level/SNR curve shows the last sweep beside the theory of its model.
+        sweeps.put(results);
         summaries.replaceChildren(sweepSummary(results[0], 'a'), sweepSummary(results[1], 'b'));
         tableHost.replaceChildren(sweepTable(results));
         status.dataset.state = 'done';
@@ -86,8 +84,8 @@ export function mountSweepView(container: HTMLElement, options: SweepViewOptions
 
   const root = h(
     'section',
-    { class: 'panel sweep-view', 'data-testid': 'sweep-view' },
-    h('h2', {}, 'Sweep'),
+    { class: 'sweep-view', 'data-testid': 'sweep-view', 'aria-label': 'Sweep' },
+    h('h2', {}, 'Level sweep of A and B'),
     h(
       'div',
       { class: 'output-row' },
@@ -98,9 +96,7 @@ export function mountSweepView(container: HTMLElement, options: SweepViewOptions
       run,
     ),
     status,
-    chartHost,
-    summaries,
-    tableHost,
+    h('div', { class: 'sweep-grid' }, chartHost, h('div', { class: 'sweep-side' }, summaries, tableHost)),
     h(
       'p',
       { class: 'hint' },
@@ -112,7 +108,6 @@ export function mountSweepView(container: HTMLElement, options: SweepViewOptions
     destroy: () => {
       alive = false;
       chart.destroy();
-      if (ownCompute) compute.destroy();
       root.remove();
     },
   };

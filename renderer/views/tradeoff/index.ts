@@ -1,2 +1,2 @@
-// The trade-off panel.
-export { mountTradeoff, type TradeoffOptions } from './tradeoff-panel';
+// The Trade-off panel.
+export { mountTradeoff, tallyText, type TradeoffDeps } from './tradeoff-panel';

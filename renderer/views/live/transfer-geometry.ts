@@ -1,4 +1,4 @@
-// The transfer curve's theory, once per channel change: the effective compressor of
+// Geometry of the Transfer curve, once per channel change: the effective compressor of
 // any quantizer from its table. (The Level/SNR theory runs in the compute worker.)
 import { createQuantizer, type Quantizer } from '../../../core/quantizers/index';
 import { parseChannel } from '../../../core/spec/parse';

@@ -1,2 +1,0 @@
-// The channel setup for A and B.
-export { mountChannelSetup, type ChannelSetupOptions } from './channel-setup';
