@@ -6,6 +6,7 @@ import { Analyzer, type AnalysisSnapshot } from '../core/analysis/analyzer';
 import { pickBridge } from './bridge';
 import { AudioEngine, ENGINE_RATE } from './audio/engine';
 import { renderOffline } from './audio/offline';
+import { chartData, pointOnPage } from './charts/chart';
 import { palette, type Palette } from './charts/theme';
 import { h } from './dom';
 import { Store } from './settings/store';
@@ -39,6 +40,10 @@ export interface QuantiscopeHandle {
   nextSnapshot: () => Promise<AnalysisSnapshot>;
   /** The chart colours of the current theme, as the charts read them. */
   palette: () => Palette;
+  /** What the charts inside the element with this data-testid draw (series by series). */
+  chartData: (testId: string) => (number | null)[][][];
+  /** Where the data point (x, y) of a chart inside the element with this data-testid is on the page. */
+  pointOnPage: (testId: string, chart: number, x: number, y: number) => { x: number; y: number } | null;
   tally: TalkerTally;
 }
 
@@ -99,6 +104,14 @@ async function main(): Promise<void> {
         });
       }),
     palette,
+    chartData: (testId) => {
+      const el = document.querySelector(`[data-testid="${testId}"]`);
+      return el ? chartData(el) : [];
+    },
+    pointOnPage: (testId, chart, x, y) => {
+      const el = document.querySelector(`[data-testid="${testId}"]`);
+      return el ? pointOnPage(el, chart, x, y) : null;
+    },
     tally,
   };
 

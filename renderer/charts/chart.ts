@@ -21,6 +21,30 @@ export function axis(label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis
   };
 }
 
+/** Every chart on the page by the box it fills, so tests can read what a panel draws. */
+const charts = new Map<HTMLElement, uPlot>();
+
+/** The data of every chart inside `root`, in document order (copies, for tests). */
+export function chartData(root: Element): (number | null)[][][] {
+  const out: (number | null)[][][] = [];
+  for (const [box, plot] of charts)
+    if (root.contains(box)) out.push(plot.data.map((s) => Array.from(s as ArrayLike<number | null>)));
+  return out;
+}
+
+/** Where a data point of the `chart`-th chart inside `root` sits on the page (client pixels), for tests. */
+export function pointOnPage(
+  root: Element,
+  chart: number,
+  x: number,
+  y: number,
+): { x: number; y: number } | null {
+  const plot = [...charts].filter(([box]) => root.contains(box))[chart]?.[1];
+  if (!plot) return null;
+  const r = plot.over.getBoundingClientRect();
+  return { x: r.left + plot.valToPos(x, 'x'), y: r.top + plot.valToPos(y, 'y') };
+}
+
 export interface BoxChart {
   plot: uPlot;
   /** The element the chart sits in (absolutely placed inside, so it never sizes its box). */
@@ -45,6 +69,7 @@ export function boxChart(
     height: Math.max(40, Math.floor(box.clientHeight)),
   });
   const plot = new uPlot({ legend: { show: false }, ...opts, ...size() }, data, inner);
+  charts.set(box, plot);
   let pending = 0;
   const observer = new ResizeObserver(() => {
     if (pending) return;
@@ -62,6 +87,7 @@ export function boxChart(
     destroy: () => {
       observer.disconnect();
       off();
+      charts.delete(box);
       plot.destroy();
       inner.remove();
     },

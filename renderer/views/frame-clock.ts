@@ -37,13 +37,18 @@ export class FrameClock {
   onFrame: ((frames: number) => void) | null = null;
 
   constructor() {
-    this.seen = new IntersectionObserver((records) => {
-      for (const r of records) {
-        const e = this.entries.get(r.target);
-        if (e) e.onScreen = r.isIntersecting;
-      }
-      this.schedule();
-    });
+    // The bottom 40 px do not count: the sticky footer covers them, so a panel that only
+    // peeks out under it is not shown.
+    this.seen = new IntersectionObserver(
+      (records) => {
+        for (const r of records) {
+          const e = this.entries.get(r.target);
+          if (e) e.onScreen = r.isIntersecting;
+        }
+        this.schedule();
+      },
+      { rootMargin: '0px 0px -40px 0px' },
+    );
     document.addEventListener('visibilitychange', () => this.schedule());
   }
 

@@ -41,6 +41,19 @@ afterAll(async () => {
 });
 
 const state = () => page.evaluate(() => window.quantiscope.engine.state()) as Promise<EngineState>;
+/** Waits for figures over at least `seconds` of input since the last reset (not wall-clock time, which a busy machine stretches). */
+const measuredFor = (seconds: number) =>
+  page.evaluate(
+    (s) =>
+      new Promise<void>((done) => {
+        const off = window.quantiscope.engine.subscribe((e) => {
+          if (e.analysis.seconds < s) return;
+          off();
+          done();
+        });
+      }),
+    seconds,
+  );
 
 interface Captured {
   frames: number;
@@ -126,7 +139,8 @@ describe('live capture from a fake microphone', () => {
   it('shows the alignment readout and sets the gain so the active level reaches -26 dBov', async () => {
     // Fresh figures from the talker on the first input channel.
     await page.evaluate(() => window.quantiscope.engine.resetFigures());
-    await page.waitForTimeout(1500);
+    // One whole loop of the 3 s talker, so the level is the file's, not a part of it.
+    await measuredFor(3.2);
     await poll(async () => (await state()).alignment.activeDbov, { timeout: 10_000 }).not.toBeNull();
     // Read, act and read again in one task, so no snapshot moves the level in between.
     const [before, after] = await page.evaluate(() => {
@@ -139,7 +153,8 @@ describe('live capture from a fake microphone', () => {
     expect(after.inputGainDb).toBeCloseTo(before.inputGainDb + (-26 - before.alignment.activeDbov!), 9);
     // Measured afresh with the new gain, the looping talker now sits near the target.
     await page.evaluate(() => window.quantiscope.engine.resetFigures());
-    await page.waitForTimeout(3500);
+    await measuredFor(3.2);
+    await page.waitForTimeout(300);
     expect(Math.abs((await state()).alignment.activeDbov! + 26)).toBeLessThan(2);
     await page.getByTestId('open-input').click();
     await poll(() => page.getByTestId('readout-active-dbov').innerText()).toMatch(/dBov$/);

@@ -11,8 +11,7 @@ let page: Page;
 beforeAll(async () => {
   site = await serveBuild('qs-live-');
   browser = await launchWith([]);
-  // Tall enough that the second row (Transfer curve, Trade-off) is on screen too: panels draw only when shown.
-  page = await browser.newPage({ viewport: { width: 1280, height: 1800 } });
+  page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
   await page.goto(site.server.url);
   await page.waitForSelector('body[data-ready="true"]', { timeout: 10_000 });
 });
@@ -43,8 +42,23 @@ const figures = async (): Promise<Figures> => ({
   active: await num('meter-peak-dbov', 'value'),
   lastLevel: await num('panel-snr-trace', 'lastLevel'),
   lowest: await num('panel-level-snr', 'lowestLiveDbm0'),
-  rms: await num('panel-transfer', 'talkerRms'),
+  rms: await transferRms(),
 });
+
+// The transfer curve sits in the second row, below the first screen: panels draw only while shown, so
+// bring it into view for a reading and then return to the first row.
+async function transferRms(): Promise<number> {
+  await page.getByTestId('panel-transfer').scrollIntoViewIfNeeded();
+  const before = await data('panel-transfer', 'talkerRms');
+  // Wait for a draw made after it came into view (throttled to a few per second).
+  await poll(async () => (await data('panel-transfer', 'talkerRms')) !== before || before !== '', {
+    timeout: 4000,
+  }).toBe(true);
+  await page.waitForTimeout(600);
+  const rms = await num('panel-transfer', 'talkerRms');
+  await page.getByTestId('panel-level-spread').scrollIntoViewIfNeeded();
+  return rms;
+}
 
 describe('the Live view', () => {
   it('draws every panel from the demo talker', async () => {

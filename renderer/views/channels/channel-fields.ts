@@ -3,6 +3,7 @@
 // back to the field.
 import type { ChannelSpec } from '../../../core/spec/types';
 import { formatChannel } from '../../../core/spec/format';
+import type { TableLookup } from '../../../core/spec/tables';
 
 export type LawChoice = 'uniform' | 'mu' | 'a' | 'g711-mu' | 'g711-a' | 'table';
 
@@ -117,13 +118,30 @@ export function composeChannel(f: ChannelFields, parse: Parse): Composed {
   }
 }
 
-/** Fields for a channel when one stage of a law here describes it, else null (a tandem, an unnamed table). */
-export function fieldsFromSpec(spec: ChannelSpec): ChannelFields | null {
+/**
+ * Fields for a channel when one stage of a law here describes it, else null (a tandem, a
+ * table not stored under its name, options only the text form has).
+ */
+export function fieldsFromSpec(spec: ChannelSpec, tables?: TableLookup): ChannelFields | null {
   if (spec.stages.length !== 1) return null;
   const s = spec.stages[0];
   const rate =
     spec.rate === 'native' ? 'native' : spec.rate % 1000 === 0 ? `${spec.rate / 1000}k` : String(spec.rate);
   const seg = 'segments' in s && s.segments !== undefined ? String(s.segments) : '';
+  if (s.law === 'table') {
+    // A stored table brings its own overload point and load capacity; the form names it.
+    const t = s.name === undefined ? undefined : tables?.(s.name);
+    const same =
+      t !== undefined &&
+      t.decisions.length === s.decisions.length &&
+      t.decisions.every((v, i) => v === s.decisions[i]) &&
+      t.outputs.length === s.outputs.length &&
+      t.outputs.every((v, i) => v === s.outputs[i]) &&
+      t.overloadPoint === s.overloadPoint &&
+      t.loadCapacityDbm0 === s.loadCapacityDbm0;
+    const bits = String(Math.ceil(Math.log2(s.outputs.length)));
+    return same ? { law: 'table', param: s.name!, bits, rate, segments: seg } : null;
+  }
   // The form has no fields for a moved overload point or load capacity: those stay text-only.
   if (
     ('overloadPoint' in s && s.overloadPoint !== undefined) ||
@@ -140,16 +158,6 @@ export function fieldsFromSpec(spec: ChannelSpec): ChannelFields | null {
     case 'g711-mu':
     case 'g711-a':
       return { law: s.law, param: '', bits: '8', rate, segments: '' };
-    case 'table':
-      return s.name === undefined
-        ? null
-        : {
-            law: 'table',
-            param: s.name,
-            bits: String(Math.ceil(Math.log2(s.outputs.length))),
-            rate,
-            segments: seg,
-          };
   }
 }
 

@@ -140,7 +140,7 @@ export function channelForm(store: Store, slot: ChannelSlot): ChannelForm {
     if (full === shown) return;
     shown = full;
     const spec = parse(full);
-    const f = fieldsFromSpec(spec);
+    const f = fieldsFromSpec(spec, store.tables.lookup);
     if (f) fields = f;
     fill();
     text.value = shortText(full);
@@ -192,7 +192,7 @@ export function channelForm(store: Store, slot: ChannelSlot): ChannelForm {
       return;
     }
     textError.textContent = '';
-    const f = fieldsFromSpec(parse(v.text));
+    const f = fieldsFromSpec(parse(v.text), store.tables.lookup);
     if (f) fields = f;
     fill();
     markFields(null, f === null);

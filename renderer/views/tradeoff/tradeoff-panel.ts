@@ -83,6 +83,10 @@ export function mountTradeoff(container: HTMLElement, deps: TradeoffDeps): { el:
   container.append(el);
   const chart = new TradeoffChart(chartHost);
   let busy = false;
+  // A press while a prediction runs is kept and run after it; a result for frames since
+  // forgotten (new source, reset) is dropped rather than shown as the current talker's.
+  let again = false;
+  let generation = 0;
   let lastFrames = 0;
   let lastRun = -Infinity;
 
@@ -110,15 +114,17 @@ export function mountTradeoff(container: HTMLElement, deps: TradeoffDeps): { el:
   const predict = () => {
     const goal = read();
     const frames = tally.levels();
-    if (!goal || busy) return;
+    if (!goal) return;
+    if (busy) {
+      again = true;
+      return;
+    }
     if (!frames) {
-      status.dataset.state = 'empty';
-      status.textContent = tally.status().excluded
-        ? 'Choose a talker (demo talker, microphone or file): test signals are not counted.'
-        : 'No active frames yet: start audio and let the talker talk.';
+      showEmpty();
       return;
     }
     busy = true;
+    const ran = generation;
     lastRun = performance.now();
     lastFrames = tally.frames;
     const { a, b } = store.audio.channels;
@@ -127,6 +133,7 @@ export function mountTradeoff(container: HTMLElement, deps: TradeoffDeps): { el:
     compute
       .run({ kind: 'recommend', frames, ...goal, channels: [a, b] })
       .then(({ recommendation: r, highlight }) => {
+        if (ran !== generation) return;
         chart.show(r, highlight);
         table.show(r, highlight);
         const chosen = r.chosen >= 0 ? r.candidates[r.chosen] : null;
@@ -147,10 +154,29 @@ export function mountTradeoff(container: HTMLElement, deps: TradeoffDeps): { el:
           (compute.inWorker ? '' : ' (computed in the page)');
       })
       .catch((err: Error) => {
+        if (ran !== generation) return;
         status.dataset.state = 'error';
         status.textContent = `Prediction refused: ${err.message}`;
       })
-      .finally(() => (busy = false));
+      .finally(() => {
+        busy = false;
+        if (again) {
+          again = false;
+          predict();
+        }
+      });
+  };
+
+  const showEmpty = () => {
+    status.dataset.state = 'empty';
+    status.textContent = tally.status().excluded
+      ? 'Choose a talker (demo talker, microphone or file): test signals are not counted.'
+      : 'No active frames yet: start audio and let the talker talk.';
+  };
+  // Frames forgotten (another source, or Reset): a prediction under way is for frames gone.
+  const forget = () => {
+    generation++;
+    lastFrames = 0;
   };
 
   // Follow the talker while the panel is on screen: not faster than the refresh interval,
@@ -165,13 +191,19 @@ export function mountTradeoff(container: HTMLElement, deps: TradeoffDeps): { el:
     },
   };
   const drawing = deps.clock.add(follow, 1000);
-  tally.onChange(() => drawing.invalidate());
+  tally.onChange(() => {
+    if (tally.frames < lastFrames || (tally.frames === 0 && lastFrames > 0)) {
+      forget();
+      showEmpty();
+    }
+    drawing.invalidate();
+  });
   update.addEventListener('click', predict);
   target.addEventListener('change', predict);
   share.addEventListener('change', predict);
   reset.addEventListener('click', () => {
     tally.reset();
-    lastFrames = 0;
+    forget();
     status.dataset.state = 'reset';
     status.textContent = 'Frames forgotten; counting afresh.';
   });
