@@ -15,6 +15,7 @@ import './figures-analysis';
 import './figures-cli';
 import './figures-offline-render';
 import './figures-frame-time';
+import './figures-watch-cost';
 import { g711Sink } from './figures-g711';
 import { quantizerSink } from './figures-quantizers';
 
